@@ -1,0 +1,55 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import { REPO_ROOT } from './config/env';
+import { apiNotFound, errorHandler } from './middleware/error-handler';
+import { apiRouter } from './routes';
+import type { AppContext } from './app-context';
+
+/** Folder of the built client (`npm run build`). */
+export const CLIENT_DIST = path.join(REPO_ROOT, 'dist', 'client');
+
+/**
+ * The Express app without `listen`, so tests can mount it with supertest. Serves the API under
+ * /api and the built client (with history fallback) everywhere else.
+ */
+export function createApp(ctx: AppContext): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: { 'img-src': ["'self'", 'data:', 'blob:'], 'form-action': ["'self'", 'http://127.0.0.1:*', 'http://localhost:*'] },
+      },
+    }),
+  );
+  app.use(
+    pinoHttp({
+      logger: ctx.logger,
+      // Method, path without query string, status and timing only: no headers, bodies or addresses.
+      serializers: {
+        req: (req: { method: string; url: string }) => ({ method: req.method, path: req.url.split('?')[0] }),
+        res: (res: { statusCode: number }) => ({ status: res.statusCode }),
+      },
+      customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
+    }),
+  );
+  app.use('/api', express.json({ limit: '1mb' }));
+  app.use('/api', apiRouter(ctx));
+  app.use('/api', apiNotFound);
+  serveClient(app);
+  app.use(errorHandler(ctx.logger));
+  return app;
+}
+
+function serveClient(app: Express): void {
+  const index = path.join(CLIENT_DIST, 'index.html');
+  app.use(express.static(CLIENT_DIST, { index: false, maxAge: '1h' }));
+  app.get(/^(?!\/api\/).*/, (_req, res) => {
+    if (fs.existsSync(index)) res.sendFile(index);
+    else res.status(503).type('text/plain').send('The web client is not built yet. Run `npm start` (it builds it) or `npm run build`.');
+  });
+}

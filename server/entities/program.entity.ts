@@ -1,0 +1,45 @@
+import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+import { CreatedAtColumn, UpdatedAtColumn } from './columns';
+import type { EligibleSide } from '@shared/schemas/program';
+
+/** A score-rationed program evaluated by Cutline. */
+@Entity({ name: 'program' })
+export class Program {
+  @PrimaryGeneratedColumn({ type: 'int', unsigned: true })
+  id!: number;
+
+  @Index('uq_program_slug', { unique: true })
+  @Column({ type: 'varchar', length: 64 })
+  slug!: string;
+
+  @Column({ type: 'varchar', length: 200 })
+  name!: string;
+
+  @Column({ type: 'text' })
+  description!: string;
+
+  @Column({ type: 'varchar', length: 200 })
+  scoreLabel!: string;
+
+  @Column({ type: 'varchar', length: 60 })
+  scoreUnit!: string;
+
+  @Column({ type: 'double' })
+  scoreMin!: number;
+
+  @Column({ type: 'double' })
+  scoreMax!: number;
+
+  @Column({ type: 'enum', enum: ['at-or-above', 'at-or-below'] })
+  eligibleSide!: EligibleSide;
+
+  /** IANA time zone of the agency; schedules and dates on screen use it. */
+  @Column({ type: 'varchar', length: 64 })
+  timeZone!: string;
+
+  @CreatedAtColumn()
+  createdAt!: Date;
+
+  @UpdatedAtColumn()
+  updatedAt!: Date;
+}

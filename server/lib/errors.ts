@@ -1,0 +1,40 @@
+import type { ErrorCode } from '@shared/errors';
+
+const STATUS: Record<ErrorCode, number> = {
+  bad_request: 400,
+  validation_failed: 400,
+  unauthenticated: 401,
+  forbidden: 403,
+  not_found: 404,
+  conflict: 409,
+  payload_too_large: 413,
+  rate_limited: 429,
+  internal: 500,
+  service_unavailable: 503,
+};
+
+/**
+ * The one error type services throw. The error middleware turns it into `ApiErrorBody` with the
+ * code's HTTP status. `message` is shown to the user as is: plain words, no personal data.
+ */
+export class AppError extends Error {
+  override name = 'AppError';
+  readonly status: number;
+  constructor(
+    readonly code: ErrorCode,
+    message: string,
+    readonly options: { details?: unknown; cause?: unknown; status?: number } = {},
+  ) {
+    super(message, { cause: options.cause });
+    this.status = options.status ?? STATUS[code];
+  }
+  get details(): unknown {
+    return this.options.details;
+  }
+}
+
+export const notFound = (what: string): AppError => new AppError('not_found', `${what} was not found.`);
+export const badRequest = (message: string, details?: unknown): AppError => new AppError('bad_request', message, { details });
+export const conflict = (message: string, details?: unknown): AppError => new AppError('conflict', message, { details });
+export const forbidden = (message = 'You do not have permission to do this.'): AppError => new AppError('forbidden', message);
+export const unauthenticated = (message = 'Please sign in first.'): AppError => new AppError('unauthenticated', message);

@@ -1,0 +1,33 @@
+import 'reflect-metadata';
+import { loadConfig } from './config/env';
+import { createDataSource } from './db/data-source';
+import { createApp } from './app';
+import { listen } from './http-server';
+import { createLogger } from './lib/logger';
+
+/**
+ * Production entry (`tsx server/main.ts`): connects to the database named by the environment,
+ * applies pending migrations and serves. `npm start` is the all-in-one local variant.
+ */
+async function main(): Promise<void> {
+  const config = loadConfig();
+  const logger = createLogger(config.logLevel);
+  const dataSource = createDataSource(config.db);
+  await dataSource.initialize();
+  await dataSource.runMigrations({ transaction: 'each' });
+  const app = createApp({ config, dataSource, logger, visiblePrograms: () => 'all' });
+  const http = await listen(app, config.app.port, process.env.CUTLINE_LISTEN_HOST ?? '127.0.0.1');
+  logger.info({ port: http.port }, 'Cutline is serving');
+  const shutdown = async () => {
+    await http.close();
+    await dataSource.destroy();
+    process.exit(0);
+  };
+  process.once('SIGINT', shutdown);
+  process.once('SIGTERM', shutdown);
+}
+
+main().catch((err: unknown) => {
+  console.error(err instanceof Error ? err.message : err);
+  process.exit(1);
+});

@@ -1,0 +1,51 @@
+import 'reflect-metadata';
+import { startScheduler } from '@jobs/index';
+import { createApp } from '../app';
+import { loadConfig } from '../config/env';
+import { installDemoScenario } from '../demo/install-demo';
+import { listen } from '../http-server';
+import { createLogger } from '../lib/logger';
+import { ensureClientBuilt } from './client-build';
+import { openDevDatabase } from './database';
+import { prepareLocalEnv } from './local-env';
+
+/**
+ * `npm start`: everything a fresh machine needs, then serve. Reuses the private database and the
+ * client build when nothing changed, so a second start takes seconds. Ctrl-C stops the app; the
+ * database keeps running (`npm run db:stop` stops it).
+ */
+async function main(): Promise<void> {
+  const say = (line: string) => console.log(`[cutline] ${line}`);
+  prepareLocalEnv();
+  const config = loadConfig();
+  const logger = createLogger(config.logLevel);
+
+  ensureClientBuilt(say);
+  const dataSource = await openDevDatabase(config, say);
+  const demo = await installDemoScenario(dataSource);
+  if (demo.installed) say('Installed the invented demo scenario (Winter Heating Credit).');
+
+  const app = createApp({ config, dataSource, logger, visiblePrograms: () => 'all' });
+  const http = await listen(app, config.app.port);
+  const scheduler = startScheduler({ config, dataSource, logger, now: () => new Date() });
+  say(`Cutline is ready: ${config.app.publicUrl}/`);
+
+  let stopping = false;
+  const stop = async () => {
+    if (stopping) return;
+    stopping = true;
+    say('Stopping…');
+    await scheduler.stop();
+    await http.close();
+    await dataSource.destroy();
+    say('Stopped. The database is still running; `npm run db:stop` stops it.');
+    process.exit(0);
+  };
+  process.on('SIGINT', stop);
+  process.on('SIGTERM', stop);
+}
+
+main().catch((err: unknown) => {
+  console.error(`[cutline] ${err instanceof Error ? err.message : String(err)}`);
+  process.exit(1);
+});

@@ -1,0 +1,13 @@
+import { z } from 'zod';
+
+/**
+ * What each role may do (enforced on the server, mirrored in the client's navigation):
+ * - admin: programs, users, grants, schedules, audit trail
+ * - analyst: extracts, mappings, designs, runs
+ * - manager: dashboards, acknowledge caveats
+ * - evaluator: read all results of granted programs, download annexes and binned data
+ * - director: read summaries, receive the scheduled e-mail
+ */
+export const ROLES = ['admin', 'analyst', 'manager', 'evaluator', 'director'] as const;
+export const RoleSchema = z.enum(ROLES);
+export type Role = z.infer<typeof RoleSchema>;
