@@ -1,9 +1,11 @@
 import type { MigrationInterface } from 'typeorm';
 import { InitialSchema1796180845907 } from './1796180845907-InitialSchema';
+import { AddAuditTrail1796181110234 } from './1796181110234-AddAuditTrail';
 
 type MigrationClass = new () => MigrationInterface;
 
 /** Every migration in order. `npm run migration:generate -- Name` writes a new file and lists it here. */
 export const MIGRATIONS: MigrationClass[] = [
   InitialSchema1796180845907,
+  AddAuditTrail1796181110234,
 ];
