@@ -1,5 +1,6 @@
 import type { Request } from 'express';
 import type { DataSource } from 'typeorm';
+import type { IdentityProviderSettings } from './auth/identity-provider';
 import type { Config } from './config/env';
 import type { Logger } from './lib/logger';
 import type { ProgramVisibility } from './services/programs.service';
@@ -9,6 +10,8 @@ export interface AppContext {
   config: Config;
   dataSource: DataSource;
   logger: Logger;
-  /** Programs the request's user may see (the sign-in module narrows this to their grants). */
+  /** The identity provider people sign in with (the agency's, or the local stand-in). */
+  identityProvider: IdentityProviderSettings;
+  /** Programs the request's user may see: `visibleProgramsOf` (`server/auth/access-enforcer.ts`) in the real app. */
   visiblePrograms: (req: Request) => ProgramVisibility;
 }

@@ -3,9 +3,13 @@ import path from 'node:path';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
+import { enforceAccess } from './auth/access-enforcer';
+import { createSignIn } from './auth/sign-in';
 import { REPO_ROOT } from './config/env';
+import { setAccessEnforcer } from './http/access';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { apiRouter } from './routes';
+import { authRoutes } from './routes/auth.routes';
 import type { AppContext } from './app-context';
 
 /** Folder of the built client (`npm run build`). */
@@ -16,13 +20,17 @@ export const CLIENT_DIST = path.join(REPO_ROOT, 'dist', 'client');
  * /api and the built client (with history fallback) everywhere else.
  */
 export function createApp(ctx: AppContext): Express {
+  // Before any route is built: every `allow(rule)` takes its check from here.
+  setAccessEnforcer(enforceAccess);
+  const signIn = createSignIn(ctx);
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
   app.use(
     helmet({
       contentSecurityPolicy: {
-        directives: { 'img-src': ["'self'", 'data:', 'blob:'], 'form-action': ["'self'", 'http://127.0.0.1:*', 'http://localhost:*'] },
+        // Forms post to Cutline only; sign-in redirects continue to the identity provider.
+        directives: { 'img-src': ["'self'", 'data:', 'blob:'], 'form-action': ["'self'", new URL(ctx.identityProvider.ssoUrl).origin] },
       },
     }),
   );
@@ -37,6 +45,8 @@ export function createApp(ctx: AppContext): Express {
       customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
     }),
   );
+  app.use(['/api', '/auth'], ...signIn.handlers);
+  app.use('/auth', authRoutes(ctx, signIn));
   app.use('/api', express.json({ limit: '1mb' }));
   app.use('/api', apiRouter(ctx));
   app.use('/api', apiNotFound);

@@ -1,4 +1,6 @@
 import 'reflect-metadata';
+import { visibleProgramsOf } from './auth/access-enforcer';
+import { resolveExternalIdentityProvider } from './auth/identity-provider';
 import { loadConfig } from './config/env';
 import { createDataSource } from './db/data-source';
 import { createApp } from './app';
@@ -12,10 +14,15 @@ import { createLogger } from './lib/logger';
 async function main(): Promise<void> {
   const config = loadConfig();
   const logger = createLogger(config.logLevel);
+  const idpSource = config.auth.identityProvider;
+  if (idpSource.kind !== 'external') {
+    throw new Error('tsx server/main.ts serves production: set CUTLINE_SAML_IDP_METADATA_URL (see README, "Signing in"). `npm start` runs a local identity provider instead.');
+  }
+  const identityProvider = await resolveExternalIdentityProvider(idpSource);
   const dataSource = createDataSource(config.db);
   await dataSource.initialize();
   await dataSource.runMigrations({ transaction: 'each' });
-  const app = createApp({ config, dataSource, logger, visiblePrograms: () => 'all' });
+  const app = createApp({ config, dataSource, logger, identityProvider, visiblePrograms: visibleProgramsOf });
   const http = await listen(app, config.app.port, process.env.CUTLINE_LISTEN_HOST ?? '127.0.0.1');
   logger.info({ port: http.port }, 'Cutline is serving');
   const shutdown = async () => {

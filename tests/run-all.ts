@@ -4,6 +4,8 @@ import { REPO_ROOT } from '@server/config/env';
 import { PrivateMariaDb } from '@server/db/private-mariadb';
 import { ensureClientBuilt } from '@server/setup/client-build';
 import { ensureDebianPackages } from '@server/setup/debian-packages';
+import { localIdpKeysDir } from '@server/dev/local-idp/server';
+import { ensureSigningKeys } from '@server/dev/local-idp/signing-keys';
 import { testEnvironment, testPorts, TEST_VAR_DIR } from './support/test-env';
 
 /**
@@ -43,6 +45,9 @@ async function main(): Promise<number> {
       extraDatabasePattern: 'cutline\\_test\\_%',
     });
     say(`private MariaDB on 127.0.0.1:${testPorts().db}`);
+    // The tests' local identity provider and an impostor with another key (tests/support/local-idp.ts).
+    ensureSigningKeys(localIdpKeysDir(TEST_VAR_DIR));
+    ensureSigningKeys(`${localIdpKeysDir(TEST_VAR_DIR)}-impostor`, 'Impostor');
 
     // Typecheck and lint run beside vitest; their output is printed after vitest's so it stays readable.
     const checks = only

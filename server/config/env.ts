@@ -26,7 +26,37 @@ const EnvSchema = z.object({
   CUTLINE_DB_PASSWORD: z.string().min(12, 'CUTLINE_DB_PASSWORD must be at least 12 characters'),
   CUTLINE_PSEUDONYM_KEY: z.string().min(32, 'CUTLINE_PSEUDONYM_KEY must be at least 32 characters'),
   CUTLINE_SESSION_SECRET: z.string().min(32, 'CUTLINE_SESSION_SECRET must be at least 32 characters'),
+  CUTLINE_SESSION_IDLE_MINUTES: z.coerce.number().int().min(1).max(24 * 60).default(30),
+  CUTLINE_SESSION_ABSOLUTE_HOURS: z.coerce.number().int().min(1).max(7 * 24).default(12),
+  CUTLINE_SIGN_IN_RATE_LIMIT: z.coerce.number().int().min(1).default(30),
+  CUTLINE_LOCAL_IDP_PORT: port.optional(),
+  CUTLINE_SAML_SP_ENTITY_ID: z.string().min(1).optional(),
+  CUTLINE_SAML_IDP_METADATA_URL: z.url().optional(),
+  CUTLINE_SAML_IDP_METADATA_FILE: z.string().min(1).optional(),
+  CUTLINE_SAML_IDP_ENTITY_ID: z.string().min(1).optional(),
+  CUTLINE_SAML_IDP_SSO_URL: z.url().optional(),
+  CUTLINE_SAML_IDP_CERT: z.string().min(1).optional(),
+  CUTLINE_SAML_WANT_RESPONSE_SIGNED: z.enum(['true', 'false']).default('true'),
+  CUTLINE_SAML_ATTRIBUTE_EMAIL: z.string().min(1).default('email'),
+  CUTLINE_SAML_ATTRIBUTE_NAME: z.string().min(1).default('displayName'),
+  CUTLINE_SAML_ATTRIBUTE_GROUPS: z.string().min(1).default('groups'),
+  CUTLINE_SAML_GROUP_ROLES: z.string().default(''),
 });
+
+/** Where the identity provider's settings come from. */
+export type IdentityProviderSource =
+  /** The local stand-in of `server/dev/local-idp` (development, demos, tests). */
+  | { kind: 'local'; port: number }
+  /** The agency's identity provider: metadata (URL or file) and/or explicit values, explicit ones winning. */
+  | {
+      kind: 'external';
+      metadataUrl?: string;
+      metadataFile?: string;
+      entityId?: string;
+      ssoUrl?: string;
+      /** PEM text, or the path of a PEM file. */
+      certificate?: string;
+    };
 
 export interface Config {
   env: 'development' | 'production' | 'test';
@@ -38,6 +68,22 @@ export interface Config {
   /** Loopback ports of the local stand-ins (identity provider, SMTP) and the private database. */
   ports: { base: number; app: number; db: number; idp: number; smtp: number };
   secrets: { pseudonymKey: string; sessionSecret: string };
+  auth: {
+    /** Cutline's SAML entity ID (the audience the identity provider must name). */
+    spEntityId: string;
+    /** Assertion consumer service: where the identity provider posts its answer. */
+    callbackUrl: string;
+    identityProvider: IdentityProviderSource;
+    /** Also require the signature of the whole response (the assertion's is always required). */
+    wantResponseSigned: boolean;
+    /** SAML attribute names that carry the e-mail address, the display name and the groups. */
+    attributes: { email: string; displayName: string; groups: string };
+    /** Raw `CUTLINE_SAML_GROUP_ROLES`; parsed and checked by `server/auth/group-roles.ts`. */
+    groupRoles: string;
+    session: { idleMinutes: number; absoluteHours: number; cookieSecure: boolean };
+    /** Sign-in requests allowed per network address per 5 minutes. */
+    signInRateLimit: number;
+  };
 }
 
 export class ConfigError extends Error {
@@ -54,12 +100,13 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const e = parsed.data;
   const base = e.CUTLINE_PORT_BASE;
   const appPort = e.CUTLINE_APP_PORT ?? base;
+  const publicUrl = (e.CUTLINE_PUBLIC_URL ?? `http://127.0.0.1:${appPort}`).replace(/\/$/, '');
   return {
     env: e.NODE_ENV,
     version: APP_VERSION,
     varDir: path.resolve(REPO_ROOT, e.CUTLINE_VAR_DIR ?? 'var'),
     logLevel: e.CUTLINE_LOG_LEVEL,
-    app: { port: appPort, publicUrl: (e.CUTLINE_PUBLIC_URL ?? `http://127.0.0.1:${appPort}`).replace(/\/$/, '') },
+    app: { port: appPort, publicUrl },
     db: {
       host: e.CUTLINE_DB_HOST,
       port: e.CUTLINE_DB_PORT ?? base + 1,
@@ -67,8 +114,39 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
       user: e.CUTLINE_DB_USER,
       password: e.CUTLINE_DB_PASSWORD,
     },
-    ports: { base, app: appPort, db: e.CUTLINE_DB_PORT ?? base + 1, idp: base + 2, smtp: base + 3 },
+    ports: { base, app: appPort, db: e.CUTLINE_DB_PORT ?? base + 1, idp: e.CUTLINE_LOCAL_IDP_PORT ?? base + 2, smtp: base + 3 },
     secrets: { pseudonymKey: e.CUTLINE_PSEUDONYM_KEY, sessionSecret: e.CUTLINE_SESSION_SECRET },
+    auth: authConfig(e, publicUrl, e.CUTLINE_LOCAL_IDP_PORT ?? base + 2),
+  };
+}
+
+function authConfig(e: z.infer<typeof EnvSchema>, publicUrl: string, localIdpPort: number): Config['auth'] {
+  const external = {
+    metadataUrl: e.CUTLINE_SAML_IDP_METADATA_URL,
+    metadataFile: e.CUTLINE_SAML_IDP_METADATA_FILE,
+    entityId: e.CUTLINE_SAML_IDP_ENTITY_ID,
+    ssoUrl: e.CUTLINE_SAML_IDP_SSO_URL,
+    certificate: e.CUTLINE_SAML_IDP_CERT,
+  };
+  const isExternal = Object.values(external).some((v) => v !== undefined);
+  if (!isExternal && e.NODE_ENV === 'production') {
+    throw new ConfigError(
+      'Configuration is not valid:\n  CUTLINE_SAML_IDP_METADATA_URL (or _METADATA_FILE, or _ENTITY_ID + _SSO_URL + _CERT): production needs the agency\'s identity provider.',
+    );
+  }
+  return {
+    spEntityId: e.CUTLINE_SAML_SP_ENTITY_ID ?? `${publicUrl}/auth/saml/metadata`,
+    callbackUrl: `${publicUrl}/auth/saml/callback`,
+    identityProvider: isExternal ? { kind: 'external', ...external } : { kind: 'local', port: localIdpPort },
+    wantResponseSigned: e.CUTLINE_SAML_WANT_RESPONSE_SIGNED === 'true',
+    attributes: { email: e.CUTLINE_SAML_ATTRIBUTE_EMAIL, displayName: e.CUTLINE_SAML_ATTRIBUTE_NAME, groups: e.CUTLINE_SAML_ATTRIBUTE_GROUPS },
+    groupRoles: e.CUTLINE_SAML_GROUP_ROLES,
+    session: {
+      idleMinutes: e.CUTLINE_SESSION_IDLE_MINUTES,
+      absoluteHours: e.CUTLINE_SESSION_ABSOLUTE_HOURS,
+      cookieSecure: publicUrl.startsWith('https://'),
+    },
+    signInRateLimit: e.CUTLINE_SIGN_IN_RATE_LIMIT,
   };
 }
 

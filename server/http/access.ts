@@ -16,12 +16,13 @@ export type AccessRule =
 
 export type AccessMiddleware = RequestHandler & { accessRule: AccessRule };
 
-/** Builds the middleware that checks a rule; replaced at start-up by the sign-in module. */
+/** Builds the middleware that checks a rule (`server/auth/access-enforcer.ts`). */
 export type AccessEnforcer = (rule: AccessRule) => RequestHandler;
 
-let enforcer: AccessEnforcer = () => (_req, _res, next) => next();
+/** Until the real check is installed, nothing gets through: a route built too early fails closed. */
+let enforcer: AccessEnforcer = () => (_req, _res, next) => next(new Error('The access check is not installed: build routes through createApp.'));
 
-/** Installed once by the sign-in module, before routes are built. */
+/** Installed by `createApp` before routes are built. */
 export function setAccessEnforcer(next: AccessEnforcer): void {
   enforcer = next;
 }

@@ -4,7 +4,9 @@ const STATUS: Record<ErrorCode, number> = {
   bad_request: 400,
   validation_failed: 400,
   unauthenticated: 401,
+  session_expired: 401,
   forbidden: 403,
+  csrf_invalid: 403,
   not_found: 404,
   conflict: 409,
   payload_too_large: 413,
@@ -38,3 +40,6 @@ export const badRequest = (message: string, details?: unknown): AppError => new 
 export const conflict = (message: string, details?: unknown): AppError => new AppError('conflict', message, { details });
 export const forbidden = (message = 'You do not have permission to do this.'): AppError => new AppError('forbidden', message);
 export const unauthenticated = (message = 'Please sign in first.'): AppError => new AppError('unauthenticated', message);
+export const sessionExpired = (message = 'Your session has ended. Please sign in again.'): AppError => new AppError('session_expired', message);
+export const csrfInvalid = (): AppError =>
+  new AppError('csrf_invalid', 'This request did not carry the security token of your session. Reload the page and try again.');

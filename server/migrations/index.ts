@@ -1,6 +1,7 @@
 import type { MigrationInterface } from 'typeorm';
 import { InitialSchema1796180845907 } from './1796180845907-InitialSchema';
 import { AddAuditTrail1796181110234 } from './1796181110234-AddAuditTrail';
+import { AddSignIn1796181746557 } from './1796181746557-AddSignIn';
 
 type MigrationClass = new () => MigrationInterface;
 
@@ -8,4 +9,5 @@ type MigrationClass = new () => MigrationInterface;
 export const MIGRATIONS: MigrationClass[] = [
   InitialSchema1796180845907,
   AddAuditTrail1796181110234,
+  AddSignIn1796181746557,
 ];

@@ -1,12 +1,21 @@
 import { Router } from 'express';
 import type { AppContext } from '../app-context';
+import { adminAuditRoutes } from './admin-audit.routes';
+import { adminUserRoutes } from './admin-users.routes';
 import { healthRoutes } from './health.routes';
+import { meRoutes } from './me.routes';
 import { programRoutes } from './programs.routes';
 
-/** Every API router, mounted under /api. A route without an `allow(...)` rule fails the access test. */
+/**
+ * Every API router, mounted under /api. One a line, sorted. Each route's first handler is
+ * `allow(...)`; `tests/api/access-matrix.test.ts` walks this router and fails on a route without one.
+ */
 export function apiRouter(ctx: AppContext): Router {
   const router = Router();
+  router.use(adminAuditRoutes(ctx));
+  router.use(adminUserRoutes(ctx));
   router.use(healthRoutes(ctx));
+  router.use(meRoutes(ctx));
   router.use(programRoutes(ctx));
   return router;
 }

@@ -1,7 +1,10 @@
 import 'reflect-metadata';
 import { startScheduler } from '@jobs/index';
 import { createApp } from '../app';
+import { visibleProgramsOf } from '../auth/access-enforcer';
+import { resolveExternalIdentityProvider } from '../auth/identity-provider';
 import { loadConfig } from '../config/env';
+import { startLocalIdp } from '../dev/local-idp/server';
 import { installDemoScenario } from '../demo/install-demo';
 import { listen } from '../http-server';
 import { createLogger } from '../lib/logger';
@@ -25,7 +28,12 @@ async function main(): Promise<void> {
   const demo = await installDemoScenario(dataSource);
   if (demo.installed) say('Installed the invented demo scenario (Winter Heating Credit).');
 
-  const app = createApp({ config, dataSource, logger, visiblePrograms: () => 'all' });
+  const idpSource = config.auth.identityProvider;
+  const localIdp = idpSource.kind === 'local' ? await startLocalIdp({ port: idpSource.port, varDir: config.varDir }) : null;
+  const identityProvider = localIdp ? localIdp.idp.settings : await resolveExternalIdentityProvider(idpSource as Extract<typeof idpSource, { kind: 'external' }>);
+  if (localIdp) say(`Local identity provider (demo sign-in, no passwords): ${localIdp.url}/`);
+
+  const app = createApp({ config, dataSource, logger, identityProvider, visiblePrograms: visibleProgramsOf });
   const http = await listen(app, config.app.port);
   const scheduler = startScheduler({ config, dataSource, logger, now: () => new Date() });
   say(`Cutline is ready: ${config.app.publicUrl}/`);
@@ -37,6 +45,7 @@ async function main(): Promise<void> {
     say('Stopping…');
     await scheduler.stop();
     await http.close();
+    await localIdp?.close();
     await dataSource.destroy();
     say('Stopped. The database is still running; `npm run db:stop` stops it.');
     process.exit(0);

@@ -1,31 +1,35 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { installDemoScenario } from '@server/demo/install-demo';
-import { listen } from '@server/http-server';
 import { DEMO_PROGRAM } from '@shared/demo/heating-credit';
 import { launchBrowser, screenshotPath } from '../support/browser';
-import { buildTestApp } from '../support/test-app';
+import { signInInBrowser } from '../support/browser-sign-in';
+import { startTestIdp } from '../support/local-idp';
 import { createTestDatabase, type TestDatabase } from '../support/test-database';
+import { startTestServer, type TestServer } from '../support/test-server';
 
 describe('home page in Chromium', () => {
   let db: TestDatabase;
-  let http: Awaited<ReturnType<typeof listen>>;
+  let server: TestServer;
+  let idp: Awaited<ReturnType<typeof startTestIdp>>;
   let browser: Awaited<ReturnType<typeof launchBrowser>>;
 
   beforeAll(async () => {
     db = await createTestDatabase();
     await installDemoScenario(db.dataSource);
-    http = await listen(buildTestApp(db).app, 0);
+    idp = await startTestIdp();
+    server = await startTestServer(db);
     browser = await launchBrowser();
   });
   afterAll(async () => {
     await browser?.close();
-    await http?.close();
+    await server?.close();
+    await idp?.close();
     await db?.drop();
   });
 
-  it('lists the demo program', async () => {
+  it('lists the demo program after signing in', async () => {
     const page = await browser.context.newPage();
-    await page.goto(`http://127.0.0.1:${http.port}/`);
+    await signInInBrowser(page, server.url, { role: 'manager' });
     const list = page.getByRole('list', { name: 'Programs' });
     const heading = list.getByRole('heading', { name: DEMO_PROGRAM.name });
     await heading.waitFor({ state: 'visible' });

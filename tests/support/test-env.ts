@@ -27,6 +27,10 @@ export function testEnvironment(): Record<string, string> {
     CUTLINE_DB_PASSWORD: secret(),
     CUTLINE_PSEUDONYM_KEY: secret(),
     CUTLINE_SESSION_SECRET: secret(),
+    // The in-process local identity provider of the tests (tests/support/local-idp.ts).
+    CUTLINE_LOCAL_IDP_PORT: String(ports.idp),
+    // Every test file signs in many times from 127.0.0.1; the limit itself is tested with a low value.
+    CUTLINE_SIGN_IN_RATE_LIMIT: '100000',
     CUTLINE_TEST_RUN: '1',
   };
 }

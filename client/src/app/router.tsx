@@ -1,8 +1,12 @@
 import { createBrowserRouter } from 'react-router-dom';
 import { RootErrorBoundary, RootLayout } from './routes/root';
 
-/** Route modules are lazy so each screen (and the chart library) loads only when opened. */
+/**
+ * Route modules are lazy so each screen (and the chart library) loads only when opened.
+ * Everything under `/` needs a signed-in person (`RootLayout` shows the sign-in page otherwise).
+ */
 export const router = createBrowserRouter([
+  { path: '/sign-in', errorElement: <RootErrorBoundary />, lazy: async () => ({ Component: (await import('./routes/sign-in')).default }) },
   {
     path: '/',
     element: <RootLayout />,

@@ -1,8 +1,15 @@
-import { QueryClient } from '@tanstack/react-query';
+import { MutationCache, QueryCache, QueryClient } from '@tanstack/react-query';
 import { ApiError } from './api-client';
 
+/**
+ * A 401 anywhere means the session has ended: asking again who is signed in lets the sign-in gate
+ * replace the page with the sign-in page (saying the session ended). A CSRF refusal also re-reads
+ * who is signed in, which re-arms the token.
+ */
 export function createQueryClient(): QueryClient {
-  return new QueryClient({
+  const client: QueryClient = new QueryClient({
+    queryCache: new QueryCache({ onError: (error, query) => onApiError(error, query.queryKey[0] === 'me') }),
+    mutationCache: new MutationCache({ onError: (error) => onApiError(error, false) }),
     defaultOptions: {
       queries: {
         staleTime: 30_000,
@@ -12,4 +19,9 @@ export function createQueryClient(): QueryClient {
       },
     },
   });
+  function onApiError(error: unknown, isMeQuery: boolean): void {
+    if (isMeQuery || !(error instanceof ApiError)) return;
+    if (error.status === 401 || error.code === 'csrf_invalid') void client.invalidateQueries({ queryKey: ['me'] });
+  }
+  return client;
 }

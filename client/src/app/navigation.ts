@@ -1,0 +1,18 @@
+import type { MeDto } from '@shared/api/auth';
+import { isAgencyAdmin } from '@/features/auth/permissions';
+
+export interface NavItem {
+  to: string;
+  label: string;
+  /** Match the path exactly (for `/`). */
+  end?: boolean;
+  /** Shown only to people who may use it (the server checks again). */
+  visible: (me: MeDto) => boolean;
+}
+
+/** The main navigation, one item a line. Add an item with a `visible` rule that matches the route's `allow(...)`. */
+export const NAV_ITEMS: NavItem[] = [
+  { to: '/', label: 'Programs', end: true, visible: () => true },
+  { to: '/admin/users', label: 'People and roles', visible: isAgencyAdmin },
+  { to: '/admin/audit', label: 'Audit trail', visible: isAgencyAdmin },
+];

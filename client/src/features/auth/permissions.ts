@@ -1,0 +1,25 @@
+import type { MeDto } from '@shared/api/auth';
+import { holdsRole } from '@shared/domain/access';
+import type { Role } from '@shared/schemas/roles';
+
+/**
+ * What the signed-in person may use, for navigation and buttons. The server decides; these
+ * mirror its rules (`shared/domain/access.ts`) so nobody is shown what they cannot open.
+ */
+export const isAgencyAdmin = (me: MeDto): boolean => holdsRole(me.grants, ['admin'], { scope: 'agency' });
+
+export const holdsRoleForProgram = (me: MeDto, roles: readonly Role[], programId: number): boolean =>
+  holdsRole(me.grants, roles, { scope: 'program', programId });
+
+export const ROLE_LABELS: Record<Role, string> = {
+  admin: 'Administrator',
+  analyst: 'Analyst',
+  manager: 'Program manager',
+  evaluator: 'Evaluator',
+  director: 'Director',
+};
+
+/** "Analyst · Winter Heating Credit", "Administrator · agency-wide". */
+export function grantLabel(g: MeDto['grants'][number]): string {
+  return `${ROLE_LABELS[g.role]} · ${g.programId === null ? 'agency-wide' : (g.programName ?? `program ${g.programId}`)}`;
+}

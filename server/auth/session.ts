@@ -1,0 +1,103 @@
+import type { RequestHandler } from 'express';
+import session from 'express-session';
+import MySQLStoreFactory from 'express-mysql-session';
+import type { DataSource } from 'typeorm';
+import type { Config } from '../config/env';
+
+/** Name of the session cookie. */
+export const SESSION_COOKIE = 'cutline.sid';
+
+declare module 'express-session' {
+  interface SessionData {
+    /** Synchronizer token for state-changing requests (`server/auth/csrf.ts`). */
+    csrfToken: string;
+    /** When the person signed in (ms since epoch), for the absolute timeout. */
+    signedInAt: number;
+  }
+}
+
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-namespace
+  namespace Express {
+    interface Request {
+      /** Set when the request carried a session cookie whose session has ended (idle or absolute timeout, account switched off). */
+      sessionEnded?: boolean;
+    }
+  }
+}
+
+const MySQLStore = MySQLStoreFactory(session);
+
+/**
+ * express-session backed by the `http_session` table (created by a migration, so the store never
+ * creates tables). The store's queries go through TypeORM's pool. The store ignores expired rows;
+ * `purgeExpiredSessions` deletes them at each sign-in rather than on a timer in every instance.
+ */
+export function sessionMiddleware(config: Config, dataSource: DataSource): RequestHandler {
+  const connection = {
+    // express-mysql-session accepts any object whose query() returns [rows, fields].
+    query: async (sql: string, params: unknown[]) => [await dataSource.query(sql, params), undefined],
+  };
+  const store = new MySQLStore(
+    {
+      createDatabaseTable: false,
+      clearExpired: false,
+      endConnectionOnClose: false,
+      schema: { tableName: 'http_session', columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' } },
+    },
+    connection as never,
+  );
+  return session({
+    name: SESSION_COOKIE,
+    secret: config.secrets.sessionSecret,
+    store,
+    resave: false,
+    saveUninitialized: false,
+    // Each request renews the idle timeout (cookie and stored expiry).
+    rolling: true,
+    cookie: {
+      httpOnly: true,
+      sameSite: 'lax',
+      secure: config.auth.session.cookieSecure,
+      maxAge: config.auth.session.idleMinutes * 60_000,
+      path: '/',
+    },
+  });
+}
+
+/** Whether the request carries Cutline's session cookie at all. */
+export function hasSessionCookie(cookieHeader: string | undefined): boolean {
+  return (cookieHeader ?? '').split(';').some((part) => part.trim().startsWith(`${SESSION_COOKIE}=`));
+}
+
+/**
+ * Ends sessions older than the absolute timeout and marks requests whose session cookie no longer
+ * names a live session, so the API can answer `session_expired` instead of a bare "please sign in".
+ * Runs after passport has loaded `req.user`.
+ */
+export function sessionLifetime(config: Config): RequestHandler {
+  const absoluteMs = config.auth.session.absoluteHours * 3_600_000;
+  return (req, _res, next) => {
+    if (req.user) {
+      const signedInAt = req.session.signedInAt ?? 0;
+      if (Date.now() - signedInAt < absoluteMs) return next();
+      req.logout((err) => {
+        req.sessionEnded = true;
+        next(err);
+      });
+      return;
+    }
+    req.sessionEnded = hasSessionCookie(req.headers.cookie);
+    next();
+  };
+}
+
+/** When the session ends at the latest (absolute timeout). */
+export function sessionEndsAt(config: Config, signedInAt: number): Date {
+  return new Date(signedInAt + config.auth.session.absoluteHours * 3_600_000);
+}
+
+/** Deletes up to `limit` expired sessions (the index on `expires` keeps this cheap). */
+export async function purgeExpiredSessions(dataSource: DataSource, limit = 1000): Promise<void> {
+  await dataSource.query('DELETE FROM http_session WHERE expires < ? LIMIT ?', [Math.floor(Date.now() / 1000), limit]);
+}
