@@ -15,6 +15,15 @@ export const ERROR_CODES = [
   'rate_limited',
   'service_unavailable',
   'internal',
+  // Designs, recomputes and results.
+  'design_locked',
+  'design_unchanged',
+  'deviation_reason_required',
+  'design_setting_unknown',
+  'no_primary_design',
+  'result_not_found',
+  // E-mail.
+  'mail_not_sent',
 ] as const;
 
 export type ErrorCode = (typeof ERROR_CODES)[number];

@@ -13,6 +13,13 @@ const STATUS: Record<ErrorCode, number> = {
   rate_limited: 429,
   internal: 500,
   service_unavailable: 503,
+  design_locked: 409,
+  design_unchanged: 409,
+  deviation_reason_required: 422,
+  design_setting_unknown: 422,
+  no_primary_design: 409,
+  result_not_found: 404,
+  mail_not_sent: 502,
 };
 
 /**

@@ -2,6 +2,7 @@ import type { MigrationInterface } from 'typeorm';
 import { InitialSchema1796180845907 } from './1796180845907-InitialSchema';
 import { AddAuditTrail1796181110234 } from './1796181110234-AddAuditTrail';
 import { AddSignIn1796181746557 } from './1796181746557-AddSignIn';
+import { AddDesignsRunsResultsMail1796182794875 } from './1796182794875-AddDesignsRunsResultsMail';
 
 type MigrationClass = new () => MigrationInterface;
 
@@ -10,4 +11,5 @@ export const MIGRATIONS: MigrationClass[] = [
   InitialSchema1796180845907,
   AddAuditTrail1796181110234,
   AddSignIn1796181746557,
+  AddDesignsRunsResultsMail1796182794875,
 ];
