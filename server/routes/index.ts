@@ -2,9 +2,12 @@ import { Router } from 'express';
 import type { AppContext } from '../app-context';
 import { adminAuditRoutes } from './admin-audit.routes';
 import { adminUserRoutes } from './admin-users.routes';
+import { designRoutes } from './designs.routes';
 import { healthRoutes } from './health.routes';
 import { meRoutes } from './me.routes';
 import { programRoutes } from './programs.routes';
+import { resultRoutes } from './results.routes';
+import { runRoutes } from './runs.routes';
 
 /**
  * Every API router, mounted under /api. One a line, sorted. Each route's first handler is
@@ -14,8 +17,11 @@ export function apiRouter(ctx: AppContext): Router {
   const router = Router();
   router.use(adminAuditRoutes(ctx));
   router.use(adminUserRoutes(ctx));
+  router.use(designRoutes(ctx));
   router.use(healthRoutes(ctx));
   router.use(meRoutes(ctx));
   router.use(programRoutes(ctx));
+  router.use(resultRoutes(ctx));
+  router.use(runRoutes(ctx));
   return router;
 }
