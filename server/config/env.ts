@@ -41,7 +41,19 @@ const EnvSchema = z.object({
   CUTLINE_SAML_ATTRIBUTE_NAME: z.string().min(1).default('displayName'),
   CUTLINE_SAML_ATTRIBUTE_GROUPS: z.string().min(1).default('groups'),
   CUTLINE_SAML_GROUP_ROLES: z.string().default(''),
+  CUTLINE_LOCAL_SMTP_PORT: port.optional(),
+  CUTLINE_SMTP_HOST: z.string().min(1).optional(),
+  CUTLINE_SMTP_PORT: port.optional(),
+  CUTLINE_SMTP_SECURE: z.enum(['true', 'false']).default('false'),
+  CUTLINE_SMTP_USER: z.string().min(1).optional(),
+  CUTLINE_SMTP_PASSWORD: z.string().min(1).optional(),
+  CUTLINE_MAIL_FROM: z.string().min(3).default('Cutline <cutline@localhost>'),
 });
+
+/** Where e-mail goes: the local fake SMTP server (development, tests) or the agency's server. */
+export type MailTransportConfig =
+  | { kind: 'local'; port: number }
+  | { kind: 'smtp'; host: string; port: number; secure: boolean; user?: string; password?: string };
 
 /** Where the identity provider's settings come from. */
 export type IdentityProviderSource =
@@ -68,6 +80,7 @@ export interface Config {
   /** Loopback ports of the local stand-ins (identity provider, SMTP) and the private database. */
   ports: { base: number; app: number; db: number; idp: number; smtp: number };
   secrets: { pseudonymKey: string; sessionSecret: string };
+  mail: { transport: MailTransportConfig; from: string; mailDir: string };
   auth: {
     /** Cutline's SAML entity ID (the audience the identity provider must name). */
     spEntityId: string;
@@ -114,10 +127,25 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
       user: e.CUTLINE_DB_USER,
       password: e.CUTLINE_DB_PASSWORD,
     },
-    ports: { base, app: appPort, db: e.CUTLINE_DB_PORT ?? base + 1, idp: e.CUTLINE_LOCAL_IDP_PORT ?? base + 2, smtp: base + 3 },
+    ports: { base, app: appPort, db: e.CUTLINE_DB_PORT ?? base + 1, idp: e.CUTLINE_LOCAL_IDP_PORT ?? base + 2, smtp: e.CUTLINE_LOCAL_SMTP_PORT ?? base + 3 },
     secrets: { pseudonymKey: e.CUTLINE_PSEUDONYM_KEY, sessionSecret: e.CUTLINE_SESSION_SECRET },
+    mail: mailConfig(e, base, path.resolve(REPO_ROOT, e.CUTLINE_VAR_DIR ?? 'var')),
     auth: authConfig(e, publicUrl, e.CUTLINE_LOCAL_IDP_PORT ?? base + 2),
   };
+}
+
+function mailConfig(e: z.infer<typeof EnvSchema>, base: number, varDir: string): Config['mail'] {
+  const transport: MailTransportConfig = e.CUTLINE_SMTP_HOST
+    ? {
+        kind: 'smtp',
+        host: e.CUTLINE_SMTP_HOST,
+        port: e.CUTLINE_SMTP_PORT ?? (e.CUTLINE_SMTP_SECURE === 'true' ? 465 : 587),
+        secure: e.CUTLINE_SMTP_SECURE === 'true',
+        user: e.CUTLINE_SMTP_USER,
+        password: e.CUTLINE_SMTP_PASSWORD,
+      }
+    : { kind: 'local', port: e.CUTLINE_LOCAL_SMTP_PORT ?? base + 3 };
+  return { transport, from: e.CUTLINE_MAIL_FROM, mailDir: path.join(varDir, 'mail') };
 }
 
 function authConfig(e: z.infer<typeof EnvSchema>, publicUrl: string, localIdpPort: number): Config['auth'] {
