@@ -27,7 +27,7 @@ import { AppError, notFound } from '../lib/errors';
 import { deviationsUpTo, primaryDesign } from './designs.service';
 import { BASELINE_WINDOW } from './recompute/scope-plan';
 
-const SEVERITY_RANK: Record<CaveatSeverity, number> = { info: 0, warning: 1, serious: 2 };
+const SEVERITY_RANK: Record<CaveatSeverity, number> = { info: 0, caution: 1, serious: 2 };
 
 /**
  * The latest results of the program's primary design: per outcome the latest cohort, the one

@@ -95,7 +95,8 @@ export interface CaveatDto {
   /** The figures behind it, e.g. `{ f: 4.2 }`. */
   values: Record<string, number | string | boolean | null>;
 }
-export type CaveatSeverity = 'info' | 'warning' | 'serious';
+/** Severities as in the caveat rule table (shared/caveats/), least to most serious. */
+export type CaveatSeverity = 'info' | 'caution' | 'serious';
 
 /** Where a result came from: enough to reproduce it. */
 export interface ProvenanceDto {
