@@ -81,7 +81,9 @@ export function sessionLifetime(config: Config): RequestHandler {
     if (req.user) {
       const signedInAt = req.session.signedInAt ?? 0;
       if (Date.now() - signedInAt < absoluteMs) return next();
-      req.logout((err) => {
+      // Destroyed rather than logged out: logging out would store a fresh empty session.
+      req.session.destroy((err) => {
+        req.user = undefined;
         req.sessionEnded = true;
         next(err);
       });

@@ -10,7 +10,7 @@ import { signInRateLimit } from '../auth/sign-in-rate-limit';
 import { allow } from '../http/access';
 import { actorOf, type CurrentUser } from '../http/current-user';
 import { csrfInvalid } from '../lib/errors';
-import { recordAudit } from '../services/audit.service';
+import { recordAudit, type AuditActor } from '../services/audit.service';
 
 const formBody = express.urlencoded({ extended: false, limit: '1mb' });
 
@@ -31,16 +31,19 @@ export function authRoutes(ctx: AppContext, signIn: SignIn): Router {
 
   /** The assertion consumer service: the identity provider posts its signed answer here. */
   router.post('/saml/callback', allow({ kind: 'public' }), limit, formBody, (req, res, next) => {
+    const refuse = (reason: SignInRefusal, actor: AuditActor = { userId: null, label: 'anonymous' }) => {
+      ctx.logger.warn({ reason }, 'sign-in refused');
+      recordAudit(ctx.dataSource.manager, { actor, action: 'auth.sign-in-refused', details: { reason } }).then(
+        () => res.redirect(303, `/sign-in?error=${reason}`),
+        next,
+      );
+    };
+    // Without an answer passport-saml would start a new sign-in; a post here must carry one.
+    if (typeof (req.body as { SAMLResponse?: unknown } | undefined)?.SAMLResponse !== 'string') return refuse('failed');
     signIn.passport.authenticate('saml', { session: false }, (err: unknown, user: CurrentUser | false, info?: SignInOutcome) => {
       if (err || !user) {
-        const reason: SignInRefusal = err ? refusalFromError(err) : info && !info.ok ? info.reason : 'failed';
-        const actor = info && !info.ok && info.actor ? info.actor : { userId: null, label: 'anonymous' };
-        ctx.logger.warn({ reason }, 'sign-in refused');
-        recordAudit(ctx.dataSource.manager, { actor, action: 'auth.sign-in-refused', details: { reason } }).then(
-          () => res.redirect(303, `/sign-in?error=${reason}`),
-          next,
-        );
-        return;
+        if (err) return refuse(refusalFromError(err));
+        return info && !info.ok ? refuse(info.reason, info.actor) : refuse('failed');
       }
       // passport regenerates the session here: a session id planted before sign-in is never promoted.
       req.login(user, (loginErr) => {
@@ -74,7 +77,11 @@ export function authRoutes(ctx: AppContext, signIn: SignIn): Router {
     const actor = actorOf(req);
     req.logout((err) => {
       if (err) return next(err);
-      recordAudit(ctx.dataSource.manager, { actor, action: 'auth.sign-out' }).then(() => endSignOut(res), next);
+      // passport leaves a fresh empty session behind; nothing needs it.
+      req.session.destroy((destroyErr) => {
+        if (destroyErr) return next(destroyErr);
+        recordAudit(ctx.dataSource.manager, { actor, action: 'auth.sign-out' }).then(() => endSignOut(res), next);
+      });
     });
   });
 
