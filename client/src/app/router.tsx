@@ -13,6 +13,9 @@ export const router = createBrowserRouter([
     errorElement: <RootErrorBoundary />,
     children: [
       { index: true, lazy: async () => ({ Component: (await import('./routes/programs')).default }) },
+      { path: 'admin/audit', lazy: async () => ({ Component: (await import('./routes/admin/audit')).default }) },
+      { path: 'admin/users', lazy: async () => ({ Component: (await import('./routes/admin/users')).default }) },
+      { path: 'admin/users/:userId', lazy: async () => ({ Component: (await import('./routes/admin/user')).default }) },
       { path: '*', lazy: async () => ({ Component: (await import('./routes/not-found')).default }) },
     ],
   },

@@ -10,16 +10,3 @@ export const isAgencyAdmin = (me: MeDto): boolean => holdsRole(me.grants, ['admi
 
 export const holdsRoleForProgram = (me: MeDto, roles: readonly Role[], programId: number): boolean =>
   holdsRole(me.grants, roles, { scope: 'program', programId });
-
-export const ROLE_LABELS: Record<Role, string> = {
-  admin: 'Administrator',
-  analyst: 'Analyst',
-  manager: 'Program manager',
-  evaluator: 'Evaluator',
-  director: 'Director',
-};
-
-/** "Analyst · Winter Heating Credit", "Administrator · agency-wide". */
-export function grantLabel(g: MeDto['grants'][number]): string {
-  return `${ROLE_LABELS[g.role]} · ${g.programId === null ? 'agency-wide' : (g.programName ?? `program ${g.programId}`)}`;
-}

@@ -41,7 +41,7 @@ function Notice({ notice }: { notice: SignInNotice }) {
   }
   const message =
     notice.kind === 'expired'
-      ? 'Your session has ended, either after a while without activity or at the end of the working day. Sign in again to carry on where you were.'
+      ? 'Sessions end after a while without activity, and at the end of the working day. Sign in again to carry on where you were.'
       : isSignInRefusal(notice.reason)
         ? SIGN_IN_REFUSALS[notice.reason]
         : SIGN_IN_REFUSALS.failed;

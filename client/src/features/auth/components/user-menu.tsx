@@ -1,6 +1,6 @@
 import { formatDateTime } from '@/lib/format';
 import { useSignedInUser } from '../me-context';
-import { grantLabel } from '../permissions';
+import { grantLabel } from '@/lib/roles';
 
 /** The signed-in person, their roles, when the session ends, and signing out (a form post with the CSRF token). */
 export function UserMenu() {
