@@ -1,6 +1,7 @@
 import type { CacheItem, CacheProvider } from '@node-saml/node-saml';
 import { LessThan, MoreThan, type DataSource } from 'typeorm';
 import { SamlRequest } from '../entities/saml-request.entity';
+import { affectedRows } from './assertion-replay';
 
 /**
  * node-saml's memory of the sign-in requests it sent (for the InResponseTo check), kept in MariaDB
@@ -18,14 +19,8 @@ export class MariaDbSamlRequestCache implements CacheProvider {
     const repo = this.dataSource.getRepository(SamlRequest);
     // Forget requests nobody answered; the index on created_at keeps this cheap.
     await repo.createQueryBuilder().delete().where({ createdAt: LessThan(new Date(createdAt.getTime() - this.lifetimeMs)) }).execute();
-    const inserted = await repo.insert({ id: key, createdAt }).then(
-      () => true,
-      (err: unknown) => {
-        if ((err as { code?: string }).code === 'ER_DUP_ENTRY') return false;
-        throw err;
-      },
-    );
-    return inserted ? { value, createdAt: createdAt.getTime() } : null;
+    const result = await repo.createQueryBuilder().insert().orIgnore().values({ id: key, createdAt }).execute();
+    return affectedRows(result.raw) === 1 ? { value, createdAt: createdAt.getTime() } : null;
   }
 
   /** The time the request was sent (ISO 8601), if it is known and still good. */
