@@ -20,6 +20,7 @@ const DEFAULT_ASSERTION_MEMORY_MS = 24 * 3_600_000;
  */
 export async function completeSignIn(ctx: AppContext, groupRules: readonly GroupRoleRule[], profile: Profile | null): Promise<SignInOutcome> {
   if (!profile) return { ok: false, reason: 'failed' };
+  // node-saml 5.1 checks `idpIssuer` on logout messages only, so the issuer of an assertion is checked here.
   if (profile.issuer !== ctx.identityProvider.entityId) return { ok: false, reason: 'wrong_issuer' };
   const assertion = readAssertion(profile);
   if (!assertion.id) return { ok: false, reason: 'failed' };

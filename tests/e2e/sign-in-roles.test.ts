@@ -11,7 +11,8 @@ import { startTestIdp } from '../support/local-idp';
 import { createTestDatabase, type TestDatabase } from '../support/test-database';
 import { startTestServer, type TestServer } from '../support/test-server';
 
-const ADMIN_NAV = ['Programs', 'People and roles', 'Audit trail'];
+/** Navigation only agency-wide administrators see; other features add their own items, so lists are not compared whole. */
+const ADMIN_ONLY_NAV = ['People and roles', 'Audit trail'];
 
 describe('signing in as each role in Chromium', () => {
   let db: TestDatabase;
@@ -72,7 +73,9 @@ describe('signing in as each role in Chromium', () => {
       const page = await browser.context.newPage();
       await signInInBrowser(page, server.url, { role });
       await page.getByRole('heading', { name: DEMO_PROGRAM.name }).waitFor();
-      expect(await navItems(page)).toEqual(role === 'admin' ? ADMIN_NAV : ['Programs']);
+      const nav = await navItems(page);
+      expect(nav).toContain('Programs');
+      for (const item of ADMIN_ONLY_NAV) expect(nav.includes(item), `${item} for the ${role}`).toBe(role === 'admin');
       await openUserMenu(page);
       expect(await page.locator('header details').textContent()).toContain(person.displayName);
       const roles = await page.getByRole('list', { name: 'Your roles' }).textContent();
@@ -91,7 +94,7 @@ describe('signing in as each role in Chromium', () => {
     const page = await browser.context.newPage();
     await signInInBrowser(page, server.url, { email: 'newcomer@harrow-vale.example', displayName: 'Nell Newcomer' });
     await page.getByText('No programs yet').waitFor();
-    expect(await navItems(page)).toEqual(['Programs']);
+    expect((await navItems(page)).filter((item) => ADMIN_ONLY_NAV.includes(item))).toEqual([]);
     await page.screenshot({ path: screenshotPath('signed-in-no-roles'), fullPage: true });
     await signOut(page);
     await page.close();
