@@ -1,5 +1,5 @@
 import { DiagnosticError } from './errors';
-import { twoSidedP } from './normal';
+import { twoSidedP } from '../estimation';
 import { invertPositiveDefinite } from './polynomial-fit';
 
 /** A local quadratic in the CDF, i.e. local linear in the density. */

@@ -1,9 +1,9 @@
 import { DiagnosticError } from './errors';
-import { twoSidedP } from './normal';
+import { boundaryConstants, twoSidedP } from '../estimation';
 import { fitPolynomial, polynomialDerivative, polynomialValue } from './polynomial-fit';
 
 /** Boundary variance constant C₂ of the triangular kernel (METHODS §3a: 24/5, derived). */
-const TRIANGULAR_BOUNDARY_VARIANCE = 4.8;
+const TRIANGULAR_BOUNDARY_VARIANCE = boundaryConstants('triangular').c2;
 /** McCrary's (2008) bandwidth constant for the triangular kernel (METHODS §4a, from memory). */
 const MCCRARY_BANDWIDTH_CONSTANT = 3.348;
 /** A quartic needs five coefficients; one more bin leaves a residual degree of freedom. */
@@ -133,6 +133,14 @@ export function smoothHistogram(bins: readonly DensityBin[], at: number, h: numb
 }
 
 /**
+ * SE of θ̂: √[(1/(n h))·(24/5)·(1/f̂₊ + 1/f̂₋)] (METHODS §4a).
+ * @example mccrarySe(1000, 0.2, 1, 1) // 0.21909 (METHODS §4c)
+ */
+export function mccrarySe(n: number, h: number, fPlus: number, fMinus: number): number {
+  return Math.sqrt((TRIANGULAR_BOUNDARY_VARIANCE / (n * h)) * (1 / fPlus + 1 / fMinus));
+}
+
+/**
  * McCrary (2008) density discontinuity test at the cutoff (METHODS §4a): histogram, bandwidth
  * rule, local-linear smoothing from each side, θ̂ = ln f̂₊ − ln f̂₋ with
  * SE = √[(1/(n h))·(24/5)·(1/f̂₊ + 1/f̂₋)] (24/5 is the triangular boundary constant; derived).
@@ -157,7 +165,7 @@ export function mccraryTest(t: Float64Array, h?: number): McCraryResult {
   }
   const n = histogram.n;
   const theta = Math.log(fPlus) - Math.log(fMinus);
-  const se = Math.sqrt((TRIANGULAR_BOUNDARY_VARIANCE / (n * bandwidth)) * (1 / fPlus + 1 / fMinus));
+  const se = mccrarySe(n, bandwidth, fPlus, fMinus);
   const z = theta / se;
   return { theta, se, z, p: twoSidedP(z), densityIneligible: fMinus, densityEligible: fPlus, binWidth: histogram.binWidth, h: bandwidth };
 }

@@ -1,5 +1,5 @@
 import type { EligibleSide } from '../schemas/program';
-import { normalCdf } from './normal';
+import { normalCdf } from '../estimation';
 
 /**
  * A score is treated as recorded on a grid when at most this share of observations have a value

@@ -1,4 +1,4 @@
-import { normalCdf, normalDensity, normalQuantile } from './normal';
+import { boundaryConstants, normalCdf, normalQuantile, type KernelName } from '../estimation';
 
 /**
  * Power and minimum detectable effect (MDE) of a cutoff comparison (METHODS §9).
@@ -89,7 +89,9 @@ export function powerAt(effect: number, se: number, alpha = 0.05): number {
 export function schochetDesignEffect(distribution: 'normal' | 'uniform', eligibleShare: number): number {
   if (!(eligibleShare > 0 && eligibleShare < 1)) throw new RangeError(`schochetDesignEffect: eligibleShare must be in (0, 1), got ${eligibleShare}`);
   const pq = eligibleShare * (1 - eligibleShare);
-  const rho2 = distribution === 'uniform' ? 3 * pq : normalDensity(normalQuantile(1 - eligibleShare)) ** 2 / pq;
+  const z = normalQuantile(1 - eligibleShare);
+  const density = Math.exp(-0.5 * z * z) / Math.sqrt(2 * Math.PI);
+  const rho2 = distribution === 'uniform' ? 3 * pq : density ** 2 / pq;
   return 1 / (1 - rho2);
 }
 
@@ -101,7 +103,9 @@ export function schochetDesignEffect(distribution: 'normal' | 'uniform', eligibl
  * the uniform value equals Schochet's 4.00, as it should. Conventional variance: robust
  * bias-corrected intervals are somewhat wider.
  */
-export const LOCAL_LINEAR_DESIGN_EFFECT = { triangular: 4.8, epanechnikov: 4.497982, uniform: 4 } as const;
+export function localLinearDesignEffect(kernel: KernelName): number {
+  return boundaryConstants(kernel).c2;
+}
 
 function resolve(fn: string, input: PowerInput) {
   const alpha = input.alpha ?? 0.05;
