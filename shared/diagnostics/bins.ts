@@ -151,7 +151,7 @@ function sideBinCount(data: SideData, spacing: BinSpacing): SideBinCount {
   const length = data.distance[n - 1]!;
   let distinct = 1;
   for (let i = 1; i < n; i++) distinct += +(data.distance[i] !== data.distance[i - 1]);
-  if (!(length > 0) || distinct < 2) return { count: 1, optimal: 0 };
+  if (!(length > 0) || distinct < 2 || !varies(data.y)) return { count: 1, optimal: 0 };
   const meanFit = fitPolynomial(data.distance, data.y, null, Math.min(MEAN_ORDER, distinct - 1), length);
   if (!meanFit) return { count: 1, optimal: 0 };
   const residual2 = new Float64Array(n);
@@ -163,7 +163,8 @@ function sideBinCount(data: SideData, spacing: BinSpacing): SideBinCount {
   const varianceFit = fitPolynomial(data.distance, residual2, null, Math.min(VARIANCE_ORDER, distinct - 1), length);
   const floor = residualMean / 10;
   const sigma2 = (x: number) => Math.max(floor, varianceFit ? polynomialValue(varianceFit, x) : residualMean);
-  if (!(residualMean > 0)) return { count: Math.min(distinct, n), optimal: Math.min(distinct, n) };
+  // A variable that is an exact polynomial of the score has no noise to average: one bin per value.
+  if (!(residualMean > 0)) return { count: distinct, optimal: distinct };
 
   let optimal: number;
   if (spacing === 'evenly-spaced') {
@@ -188,8 +189,15 @@ function sideBinCount(data: SideData, spacing: BinSpacing): SideBinCount {
     }
     optimal = Math.cbrt((2 * (bias / 12)) / (variance / n));
   }
+  if (!Number.isFinite(optimal)) optimal = distinct;
   const count = Math.max(1, Math.min(Math.ceil(optimal), distinct));
   return { count, optimal };
+}
+
+/** Whether the values are not all the same. */
+function varies(values: Float64Array): boolean {
+  for (let i = 1; i < values.length; i++) if (values[i] !== values[0]) return true;
+  return false;
 }
 
 /** Each side's data by distance from the cutoff, ascending. */

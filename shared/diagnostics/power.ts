@@ -10,7 +10,7 @@ import { boundaryConstants, normalCdf, normalQuantile, type KernelName } from '.
  * memory), so halving the take-up jump quadruples the sample needed.
  *
  * Hand case (stated in the unit test): n = 1,000, P = 0.5, σ = 1, R² = 0, DEFF = 4 (uniform score):
- * SE = √(4/250) = 0.12649, MDE(ITT) = 2.8016·0.12649 = 0.35437, and with Δ = 0.5, MDE(effect) = 0.70875.
+ * SE = √(4/250) = 0.126491, MDE(ITT) = 2.801585·0.126491 = 0.354376, and with Δ = 0.5, MDE(effect) = 0.708751.
  */
 export interface PowerInput {
   /** Observations expected near the cutoff (inside the bandwidth), both sides together. */
@@ -50,7 +50,7 @@ export interface PowerResult {
   mdeEffect: number | null;
 }
 
-/** @example minimumDetectableEffect({ n: 1000, eligibleShare: 0.5, outcomeSd: 1, designEffect: 4 }).mdeItt // ≈ 0.3544 */
+/** @example minimumDetectableEffect({ n: 1000, eligibleShare: 0.5, outcomeSd: 1, designEffect: 4 }).mdeItt // ≈ 0.354376 */
 export function minimumDetectableEffect(input: PowerInput): PowerResult {
   const r = resolve('minimumDetectableEffect', input);
   if (!(input.n > 0)) throw new RangeError(`minimumDetectableEffect: n must be positive, got ${input.n}`);
