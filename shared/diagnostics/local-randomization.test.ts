@@ -21,7 +21,10 @@ describe('localRandomization', () => {
       total++;
       let s1 = 0;
       let s0 = 0;
-      for (let j = 0; j < 20; j++) (mask >> j) & 1 ? (s1 += y[j]!) : (s0 += y[j]!);
+      for (let j = 0; j < 20; j++) {
+        if ((mask >> j) & 1) s1 += y[j]!;
+        else s0 += y[j]!;
+      }
       extreme += +(Math.abs(s1 / 10 - s0 / 10) >= Math.abs(observed) * (1 - 1e-12) - 1e-15);
     }
     expect(total).toBe(184_756);
