@@ -4,6 +4,7 @@ import { adminAuditRoutes } from './admin-audit.routes';
 import { adminUserRoutes } from './admin-users.routes';
 import { designRoutes } from './designs.routes';
 import { healthRoutes } from './health.routes';
+import { mailRoutes } from './mail.routes';
 import { meRoutes } from './me.routes';
 import { programRoutes } from './programs.routes';
 import { resultRoutes } from './results.routes';
@@ -19,6 +20,7 @@ export function apiRouter(ctx: AppContext): Router {
   router.use(adminUserRoutes(ctx));
   router.use(designRoutes(ctx));
   router.use(healthRoutes(ctx));
+  router.use(mailRoutes(ctx));
   router.use(meRoutes(ctx));
   router.use(programRoutes(ctx));
   router.use(resultRoutes(ctx));
