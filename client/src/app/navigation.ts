@@ -1,5 +1,5 @@
 import type { MeDto } from '@shared/api/auth';
-import { isAgencyAdmin } from '@/features/auth/permissions';
+import { holdsAnyRole, isAgencyAdmin } from '@/features/auth/permissions';
 
 export interface NavItem {
   to: string;
@@ -15,4 +15,6 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Programs', end: true, visible: () => true },
   { to: '/admin/users', label: 'People and roles', visible: isAgencyAdmin },
   { to: '/admin/audit', label: 'Audit trail', visible: isAgencyAdmin },
+  { to: '/admin/mail', label: 'Sent mail', visible: isAgencyAdmin },
+  { to: '/me/summary', label: 'My summary', visible: (me) => holdsAnyRole(me, ['director']) },
 ];

@@ -8,3 +8,4 @@ export const buttonDanger =
 export const field = 'w-full rounded border border-ink-300 bg-panel px-3 py-2 text-sm text-ink-900 focus:border-accent-500';
 export const fieldLabel = 'mb-1 block text-sm font-medium text-ink-700';
 export const fieldError = 'mt-1 text-sm text-serious';
+export const panel = 'rounded-lg border border-rule bg-panel p-5';

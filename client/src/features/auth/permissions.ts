@@ -10,3 +10,6 @@ export const isAgencyAdmin = (me: MeDto): boolean => holdsRole(me.grants, ['admi
 
 export const holdsRoleForProgram = (me: MeDto, roles: readonly Role[], programId: number): boolean =>
   holdsRole(me.grants, roles, { scope: 'program', programId });
+
+/** Holds one of the roles for some program or agency-wide. */
+export const holdsAnyRole = (me: MeDto, roles: readonly Role[]): boolean => me.grants.some((g) => roles.includes(g.role));

@@ -1,5 +1,8 @@
 import type { ProgramSummaryDto } from '@shared/api/programs';
 import { Empty, ErrorState, Loading } from '@/components/ui/states';
+import { Link } from 'react-router-dom';
+import { useSignedInUser } from '@/features/auth/me-context';
+import { holdsRoleForProgram } from '@/features/auth/permissions';
 import { formatNumber, formatPeriod } from '@/lib/format';
 import { usePrograms } from '../api/get-programs';
 
@@ -20,6 +23,8 @@ export function ProgramList() {
 }
 
 function ProgramCard({ program }: { program: ProgramSummaryDto }) {
+  const me = useSignedInUser();
+  const analysis = holdsRoleForProgram(me, ['admin', 'analyst'], program.id);
   const who = program.eligibleSide === 'at-or-above' ? 'at or above' : 'at or below';
   return (
     <li className="rounded-lg border border-rule bg-panel p-6 shadow-[0_1px_0_var(--color-rule)]">
@@ -41,6 +46,16 @@ function ProgramCard({ program }: { program: ProgramSummaryDto }) {
           <dd className="mt-1 font-medium">{formatPeriod(program.latestPeriod)}</dd>
         </div>
       </dl>
+      {analysis ? (
+        <p className="mt-5 flex gap-4 border-t border-rule pt-4 text-sm">
+          <Link className="text-accent-700 underline" to={`/programs/${program.id}/designs`}>
+            Evaluation designs
+          </Link>
+          <Link className="text-accent-700 underline" to={`/programs/${program.id}/runs`}>
+            Recompute runs
+          </Link>
+        </p>
+      ) : null}
     </li>
   );
 }
