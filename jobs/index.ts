@@ -1,8 +1,11 @@
 import cron from 'node-cron';
+import { directorSummaryJob } from './director-summary.job';
 import type { JobContext, JobDefinition } from './job';
 
-/** Every scheduled job. Each file `<name>.job.ts` exports one definition; list it here. */
-export const JOBS: JobDefinition[] = [];
+/** Every scheduled job. Each file `<name>.job.ts` exports one definition; list it here, one a line. */
+export const JOBS: JobDefinition[] = [
+  directorSummaryJob,
+];
 
 /** Registers every job with node-cron; a failing run is logged and the schedule keeps going. */
 export function startScheduler(ctx: JobContext, jobs: readonly JobDefinition[] = JOBS): { stop: () => Promise<void> } {

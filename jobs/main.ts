@@ -1,6 +1,7 @@
 import 'reflect-metadata';
 import { loadConfig } from '@server/config/env';
 import { createDataSource } from '@server/db/data-source';
+import { startLocalMailIfConfigured } from '@server/dev/local-smtp/start-local-mail';
 import { createLogger } from '@server/lib/logger';
 import { findJob, JOBS, startScheduler } from './index';
 
@@ -25,10 +26,12 @@ async function main(args: string[]): Promise<void> {
     await dataSource.destroy();
     return;
   }
+  const localMail = await startLocalMailIfConfigured(config, (line) => logger.info(line));
   const scheduler = startScheduler(ctx);
   logger.info({ jobs: JOBS.map((j) => j.name) }, 'scheduler running');
   const stop = async () => {
     await scheduler.stop();
+    await localMail?.close();
     await dataSource.destroy();
     process.exit(0);
   };

@@ -19,7 +19,7 @@ export interface SummaryContent {
 /** Cohorts in the trend of the e-mail. */
 export const TREND_COHORTS = 12;
 
-const SEVERITY_RANK = { serious: 2, warning: 1, info: 0 } as const;
+const SEVERITY_RANK = { serious: 2, caution: 1, info: 0 } as const;
 
 /**
  * The subject: the latest month on record and the program names, led by "Change alert" when any

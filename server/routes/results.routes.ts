@@ -4,6 +4,9 @@ import { PeriodSchema, VariableKeySchema } from '@shared/schemas/program';
 import type { AppContext } from '../app-context';
 import { allow } from '../http/access';
 import { idParam, parse } from '../http/validate';
+import { CaveatAcknowledgeSchema } from '@shared/schemas/caveat-acknowledgement';
+import { actorOf } from '../http/current-user';
+import { acknowledgeCaveat } from '../services/caveat-acknowledgements.service';
 import { getCohortDetail, getCohortTrend, getResultsOverview } from '../services/results.service';
 
 const TrendQuerySchema = z.object({ outcome: VariableKeySchema });
@@ -34,6 +37,11 @@ export function resultRoutes(ctx: AppContext): Router {
       res.json(await getCohortDetail(ctx.dataSource, idParam(req.params.programId, 'Program id'), period));
     },
   );
+  router.post('/programs/:programId/results/:resultId/acknowledgements', allow({ kind: 'roles', roles: ['manager'], scope: 'program' }), async (req, res) => {
+    const programId = idParam(req.params.programId, 'Program id');
+    const ack = await acknowledgeCaveat(ctx.dataSource, programId, idParam(req.params.resultId, 'Result id'), actorOf(req), parse(CaveatAcknowledgeSchema, req.body));
+    res.status(201).json(ack);
+  });
   return router;
 }
 

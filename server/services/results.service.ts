@@ -24,6 +24,7 @@ import { OutcomeDefinition } from '../entities/outcome-definition.entity';
 import { Program } from '../entities/program.entity';
 import { RecomputeRun } from '../entities/recompute-run.entity';
 import { AppError, notFound } from '../lib/errors';
+import { acknowledgementsFor } from './caveat-acknowledgements.service';
 import { deviationsUpTo, primaryDesign } from './designs.service';
 import { BASELINE_WINDOW } from './recompute/scope-plan';
 
@@ -183,13 +184,14 @@ async function outcomeRefs(manager: EntityManager, programId: number, keys: read
 
 async function toDtos(manager: EntityManager, rows: EstimateResult[], refs: OutcomeRefDto[]): Promise<OutcomeResultDto[]> {
   const deviationCounts = new Map<string, number>();
+  const acks = await acknowledgementsFor(manager, rows);
   const out: OutcomeResultDto[] = [];
   for (const r of rows) {
     const ref = refs.find((x) => x.key === r.outcomeKey);
     if (!ref) continue;
     const cacheKey = `${r.designId}:${r.designVersion}`;
     if (!deviationCounts.has(cacheKey)) deviationCounts.set(cacheKey, (await deviationsUpTo(manager, r.designId, r.designVersion)).length);
-    out.push(toOutcomeResultDto(r, ref, deviationCounts.get(cacheKey)!));
+    out.push({ ...toOutcomeResultDto(r, ref, deviationCounts.get(cacheKey)!), acknowledgements: acks.get(r.id) ?? [] });
   }
   return out;
 }

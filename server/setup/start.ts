@@ -8,6 +8,7 @@ import { startLocalIdp } from '../dev/local-idp/server';
 import { installDemoScenario } from '../demo/install-demo';
 import { listen } from '../http-server';
 import { createLogger } from '../lib/logger';
+import { startLocalMailIfConfigured } from '../dev/local-smtp/start-local-mail';
 import { ensureClientBuilt } from './client-build';
 import { openDevDatabase } from './database';
 import { prepareLocalEnv } from './local-env';
@@ -35,6 +36,7 @@ async function main(): Promise<void> {
 
   const app = createApp({ config, dataSource, logger, identityProvider, visiblePrograms: visibleProgramsOf });
   const http = await listen(app, config.app.port);
+  const localMail = await startLocalMailIfConfigured(config, say);
   const scheduler = startScheduler({ config, dataSource, logger, now: () => new Date() });
   say(`Cutline is ready: ${config.app.publicUrl}/`);
 
@@ -44,6 +46,7 @@ async function main(): Promise<void> {
     stopping = true;
     say('Stopping…');
     await scheduler.stop();
+    await localMail?.close();
     await http.close();
     await localIdp?.close();
     await dataSource.destroy();

@@ -98,6 +98,15 @@ export interface CaveatDto {
 /** Severities as in the caveat rule table (shared/caveats/), least to most serious. */
 export type CaveatSeverity = 'info' | 'caution' | 'serious';
 
+/** A manager's acknowledgement of a caveat (kept across recomputes that keep the caveat). */
+export interface CaveatAcknowledgementDto {
+  id: number;
+  caveatCode: string;
+  comment: string;
+  acknowledgedBy: string;
+  acknowledgedAt: string;
+}
+
 /** Where a result came from: enough to reproduce it. */
 export interface ProvenanceDto {
   runId: number;
@@ -149,6 +158,8 @@ export interface OutcomeResultDto {
   staleReason: string | null;
   /** Deviations from the locked plan that apply to this result's design version. */
   deviationCount: number;
+  /** Acknowledgements of this result's caveats (same scope, outcome and caveat code). */
+  acknowledgements?: CaveatAcknowledgementDto[];
   /** The cohort's extract was accepted after the design was locked (a pre-registered analysis). */
   preRegistered: boolean;
   provenance: ProvenanceDto;
