@@ -75,7 +75,7 @@ const CASES: Record<string, (input: CaveatInput) => void> = {
   depends_on_scores_at_cutoff: (i) => Object.assign(i.findings.donut[0]!, { estimate: 0.05 }),
   several_outcomes_tested: (i) => Object.assign(i, { outcomesTested: 3 }),
   small_effects_undetectable: (i) => Object.assign(i.estimate!, { effectP: 0.4 }),
-  check_not_run: (i) => Object.assign(i, { notRun: [{ check: 'score density', code: 'too_few_observations', reason: 'Too few scores near the cutoff.' }] }),
+  check_not_run: (i) => Object.assign(i, { notRun: [{ check: 'score density check', code: 'too_few_observations', reason: 'Too few scores near the cutoff.' }] }),
 };
 
 const STANDING = CAVEAT_RULES.filter((r) => r.standing).map((r) => r.code);
@@ -141,7 +141,7 @@ describe('caveat rules', () => {
       ciLow: -0.3, ciHigh: 0.1, permutations: 2000, exact: false, windows: [],
     };
     const message = applyCaveats(input).find((c) => c.code === 'few_score_values_near_cutoff')!.message;
-    expect(message).toContain('within 2 points');
+    expect(message).toContain('with scores within 2 of the cutoff');
     expect(message).toContain('estimate -0.09');
     for (const c of applyCaveats(input)) expect(c.message.toLowerCase()).not.toContain('cluster');
   });

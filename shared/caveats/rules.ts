@@ -177,11 +177,11 @@ export const CAVEAT_RULES: readonly CaveatRule[] = [
       if (lr && lr.effect !== null) Object.assign(values, { localEffect: lr.effect, localP: lr.ittP, window: lr.window });
       return once(values);
     },
-    message: (v) =>
+    message: (v, input) =>
       `The score takes only ${v.distinct} distinct values near the cutoff on one side, so the usual intervals are unreliable. ` +
       (v.localEffect === undefined
-        ? 'Compare only applicants closest to the cutoff instead (the local-randomization analysis).'
-        : `The comparison of those closest to the cutoff (within ${plainScore(Number(v.window))} points) is a better guide: ` +
+        ? `Compare only the ${input.population} closest to the cutoff instead (the local-randomization analysis).`
+        : `Comparing only the ${input.population} with scores within ${plainScore(Number(v.window))} of the cutoff is a better guide: ` +
           `estimate ${plainNumber(Number(v.localEffect))}, ${plainP(Number(v.localP))}.`),
   },
 
@@ -245,7 +245,7 @@ export const CAVEAT_RULES: readonly CaveatRule[] = [
     },
     message: (v, input) =>
       `The estimate changes with how far from the cutoff ${input.population} are compared: ${plainNumber(Number(v.estimate))} as reported, ` +
-      `${plainNumber(Number(v.otherEstimate))} within ${plainScore(Number(v.otherH))} points. Treat it with care.`,
+      `${plainNumber(Number(v.otherEstimate))} comparing only those within ${plainScore(Number(v.otherH))} of the cutoff. Treat it with care.`,
   },
   {
     code: 'depends_on_scores_at_cutoff',
@@ -261,7 +261,7 @@ export const CAVEAT_RULES: readonly CaveatRule[] = [
       return once({ estimate: e.effect, otherEstimate: first.estimate, radius: first.radius, dropped: first.dropped });
     },
     message: (v, input) =>
-      `Leaving out the ${v.dropped} ${input.population} within ${plainScore(Number(v.radius))} points of the cutoff changes the estimate from ` +
+      `Leaving out the ${v.dropped} ${input.population} with scores within ${plainScore(Number(v.radius))} of the cutoff changes the estimate from ` +
       `${plainNumber(Number(v.estimate))} to ${plainNumber(Number(v.otherEstimate))}: it leans on those closest to the cutoff.`,
   },
 
@@ -296,6 +296,6 @@ export const CAVEAT_RULES: readonly CaveatRule[] = [
     standing: false,
     trigger: 'A diagnostic could not be computed on these data; one caveat per diagnostic.',
     find: (input) => input.notRun.map((n) => ({ check: n.check, reason: n.reason, reasonCode: n.code })),
-    message: (v) => `The ${v.check} check could not be run: ${String(v.reason).charAt(0).toLowerCase()}${String(v.reason).slice(1)}`,
+    message: (v) => `The ${v.check} could not be computed: ${String(v.reason).charAt(0).toLowerCase()}${String(v.reason).slice(1)}`,
   },
 ];

@@ -33,6 +33,17 @@ describe('mccraryTest', () => {
     expect(Math.abs(clean.densityIneligible - 0.5)).toBeLessThan(0.1);
     expect(Math.abs(clean.densityEligible - 0.5)).toBeLessThan(0.1);
   });
+
+  // Whole-point scores: with bins narrower than a point, the cutoff's own value sits alone in the
+  // first eligible bin and the bin just below is empty, a spurious jump; one bin per value removes it.
+  it('puts one score value in each bin when given the grid step', () => {
+    const rng = createRng(3);
+    const t = Float64Array.from({ length: 3000 }, () => rng.int(21) - 10);
+    expect(mccraryTest(t).p).toBeLessThan(1e-6);
+    const onGrid = mccraryTest(t, undefined, 1);
+    expect(onGrid.binWidth).toBe(1);
+    expect(Math.abs(onGrid.z)).toBeLessThan(3);
+  });
 });
 
 function sd(x: Float64Array): number {

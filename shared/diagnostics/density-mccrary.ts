@@ -47,9 +47,14 @@ export interface McCraryResult {
  * bin width b = 2σ̂n^(−1/2), bins [kb, (k+1)b) in centred units so the cutoff is an edge and no
  * bin straddles it, heights count/(n·b). Every bin between the data's extremes is listed, empty
  * ones too (an empty bin is information about the density).
+ *
+ * A score recorded on a grid coarser than b (e.g. whole points) would leave bins alternately full
+ * and empty, and the value at the cutoff alone in the first eligible bin; pass the grid step as
+ * `minimumBinWidth` so each bin holds one score value (McCrary's advice that bins respect the
+ * score's discreteness; from memory).
  * @throws DiagnosticError `too_little_variation` when the score has no spread.
  */
-export function densityHistogram(t: Float64Array): DensityHistogram {
+export function densityHistogram(t: Float64Array, minimumBinWidth = 0): DensityHistogram {
   const n = t.length;
   let sum = 0;
   let min = Infinity;
@@ -65,7 +70,7 @@ export function densityHistogram(t: Float64Array): DensityHistogram {
   for (let i = 0; i < n; i++) ss += (t[i]! - mean) ** 2;
   const sd = Math.sqrt(ss / (n - 1));
   if (!(sd > 0)) throw new DiagnosticError('too_little_variation', 'The score has the same value for everyone, so its density cannot be examined.');
-  const binWidth = (2 * sd) / Math.sqrt(n);
+  const binWidth = Math.max((2 * sd) / Math.sqrt(n), minimumBinWidth);
   const lowest = Math.floor(min / binWidth);
   const highest = Math.floor(max / binWidth);
   const counts = new Float64Array(highest - lowest + 1);
@@ -148,11 +153,12 @@ export function mccrarySe(n: number, h: number, fPlus: number, fMinus: number): 
  *
  * @param t centred scores (`centredScore`).
  * @param h smoothing bandwidth in score units; default McCrary's rule of thumb.
+ * @param minimumBinWidth the score's grid step, when it has one (see `densityHistogram`).
  * @throws DiagnosticError when a side has too few bins or a density estimate is not positive.
  * @example mccraryTest(centredScore(score, 60, 'at-or-above')).p
  */
-export function mccraryTest(t: Float64Array, h?: number): McCraryResult {
-  const histogram = densityHistogram(t);
+export function mccraryTest(t: Float64Array, h?: number, minimumBinWidth = 0): McCraryResult {
+  const histogram = densityHistogram(t, minimumBinWidth);
   const bandwidth = h ?? mccraryBandwidth(histogram);
   if (!(bandwidth > 0)) throw new RangeError(`mccraryTest: h must be positive, got ${bandwidth}`);
   const fMinus = smoothHistogram(histogram.ineligible, 0, bandwidth);

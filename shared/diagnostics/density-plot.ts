@@ -11,8 +11,8 @@ const CURVE_POINTS = 30;
  * (each side smoothed from its own bins only, so the curve may jump at the cutoff), evaluated at
  * evenly spaced points from the cutoff to the side's last bin. Score units throughout.
  */
-export function densityPlot(t: Float64Array, h: number, placement: { cutoff: number; eligibleSide: EligibleSide }): DensityPlot {
-  const histogram = densityHistogram(t);
+export function densityPlot(t: Float64Array, h: number, placement: { cutoff: number; eligibleSide: EligibleSide }, minimumBinWidth = 0): DensityPlot {
+  const histogram = densityHistogram(t, minimumBinWidth);
   const at = (v: number) => scoreAt(v, placement.cutoff, placement.eligibleSide);
   const curve = (bins: typeof histogram.eligible, direction: 1 | -1): DensityPoint[] => {
     const reach = bins.length * histogram.binWidth;

@@ -35,6 +35,13 @@ describe('scoreHeaping', () => {
     expect(r.atCutoff!.p).toBeLessThan(0.001);
   });
 
+  it('does not take the extremes of the range for round-number heaping', () => {
+    const narrow = Float64Array.from({ length: 21_000 }, (_, i) => i % 21);
+    const ten = scoreHeaping(narrow, 10, 'at-or-above', 5).roundValues.find((row) => row.base === 10)!;
+    expect(ten.count).toBe(1000); // only the 10s: 0 and 20 are the ends of the range
+    expect(ten.ratio).toBe(1);
+  });
+
   it('calls a score with few values near the cutoff discrete and counts the cutoff as eligible', () => {
     const coarse = Float64Array.from({ length: 5000 }, () => 10 * Math.round(10 * rng.uniform()));
     const r = scoreHeaping(coarse, 60, 'at-or-below', 25);

@@ -102,11 +102,14 @@ export function scoreHeaping(score: Float64Array, cutoff: number, eligibleSide: 
   const keys = new Map<number, number>();
   for (const [v, c] of counts) keys.set(Math.round(v / step), c);
   const at = (k: number) => keys.get(k) ?? 0;
+  const lowestKey = Math.round(values[0]! / step);
+  const highestKey = Math.round(values[values.length - 1]! / step);
   for (const multiple of [10, 5]) {
     let count = 0;
     let neighbours = 0;
     for (const [k, c] of keys) {
-      if (k % multiple !== 0) continue;
+      // The extremes have a neighbour on one side only; they would look heaped.
+      if (k % multiple !== 0 || k === lowestKey || k === highestKey) continue;
       count += c;
       neighbours += at(k - 1) + at(k + 1);
     }

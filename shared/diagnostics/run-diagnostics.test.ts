@@ -69,6 +69,6 @@ describe('runDiagnostics', () => {
     const outcome = Float64Array.from(score, (s) => s / 10);
     const report = runDiagnostics({ score, outcome }, { cutoff: 15, eligibleSide: 'at-or-above', bandwidth: 10 });
     expect(report.density).toBeNull();
-    expect(report.caveats.find((c) => c.code === 'check_not_run' && c.values.check === 'score density')).toBeDefined();
+    expect(report.caveats.find((c) => c.code === 'check_not_run' && c.values.check === 'score density check')).toBeDefined();
   });
 });

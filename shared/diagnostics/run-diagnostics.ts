@@ -51,23 +51,24 @@ export function runDiagnostics(data: DiagnosticsData, options: DiagnosticsOption
   const main = attempt('main estimate', () => estimateDiscontinuity(engineData, estimation));
   const t = centredScore(data.score, estimation.cutoff, estimation.eligibleSide);
 
-  const density = attempt('score density', () => {
-    const mccrary = mccraryTest(t);
-    return { mccrary, localPolynomial: localPolynomialDensityTest(t, mccrary.h), plot: densityPlot(t, mccrary.h, placement) };
+  const window = main?.bandwidth.h ?? spread(data.score) / 4;
+  const heaping = attempt('score heaping check', () => scoreHeaping(data.score, estimation.cutoff, estimation.eligibleSide, window));
+  const gridStep = heaping?.step ?? 0;
+  const density = attempt('score density check', () => {
+    const mccrary = mccraryTest(t, undefined, gridStep);
+    return { mccrary, localPolynomial: localPolynomialDensityTest(t, mccrary.h), plot: densityPlot(t, mccrary.h, placement, gridStep) };
   });
-  const window = main?.bandwidth.h ?? density?.mccrary.h ?? spread(data.score) / 4;
-  const heaping = attempt('score heaping', () => scoreHeaping(data.score, estimation.cutoff, estimation.eligibleSide, window));
 
   const balance = covariates.length > 0 ? covariateBalance(data.score, covariates, estimation, data.cluster) : { rows: [], failures: [] };
   for (const f of balance.failures) {
-    if (isEstimationError(f.error)) notRun.push({ check: `balance of ${f.covariate}`, code: f.error.code, reason: f.error.message });
+    if (isEstimationError(f.error)) notRun.push({ check: `balance check of ${covariates.find((c) => c.name === f.covariate)?.label ?? f.covariate}`, code: f.error.code, reason: f.error.message });
     else throw f.error;
   }
   const placebo = placeboCutoffs(engineData, estimation);
   const sensitivity = main ? bandwidthSensitivity(engineData, estimation, main) : [];
   const donut = main ? donutEstimates(engineData, estimation, donutRadii(heaping?.step ?? null, main.bandwidth.h)) : [];
 
-  const localRandom = attempt('local randomization', () =>
+  const localRandom = attempt('local-randomization comparison', () =>
     localRandomization(
       { t, outcome: data.outcome, ...(data.takeUp ? { takeUp: data.takeUp } : {}), covariates: covariates.map((c) => c.values) },
       { ...(main ? { maxWindow: main.bandwidth.h } : {}), ...(permutations ? { permutations } : {}), ...(start !== undefined ? { start } : {}), level: main?.options.level ?? 0.95 },
@@ -78,8 +79,8 @@ export function runDiagnostics(data: DiagnosticsData, options: DiagnosticsOption
     quantileSpaced: binnedMeans(t, values, 'quantile-spaced', placement),
     fit: main ? fittedLines(data.score, values, main) : { ineligible: [], eligible: [] },
   });
-  const bins = attempt('chart', () => ({ outcome: chart(data.outcome), takeUp: data.takeUp ? chart(data.takeUp) : null }));
-  const power = main ? attempt('power', () => powerFor(t, data.outcome, main, targetEffect)) : null;
+  const bins = attempt('chart of binned means', () => ({ outcome: chart(data.outcome), takeUp: data.takeUp ? chart(data.takeUp) : null }));
+  const power = main ? attempt('power calculation', () => powerFor(t, data.outcome, main, targetEffect)) : null;
 
   const findings: Omit<DiagnosticsReport, 'caveats'> = {
     density,
