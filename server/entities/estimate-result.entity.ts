@@ -8,6 +8,7 @@ import type {
   ProvenanceDto,
   ResultScopeDto,
   SampleSizeDto,
+  SideLimitsDto,
 } from '@shared/api/results';
 import { EvaluationDesign } from './evaluation-design.entity';
 
@@ -21,6 +22,8 @@ export interface StoredFigures {
   bandwidth: BandwidthDto | null;
   n: SampleSizeDto | null;
   pooling: PoolingDto | null;
+  /** Absent in rows written before the limits were kept. */
+  limits?: SideLimitsDto | null;
 }
 
 /**

@@ -86,6 +86,12 @@ export interface SampleSizeDto {
   droppedByDonut: number;
 }
 
+/** Fitted limits at the cutoff from each side (conventional, at h): outcome and take-up just below and just above. */
+export interface SideLimitsDto {
+  ineligible: { outcome: number; takeUp: number | null };
+  eligible: { outcome: number; takeUp: number | null };
+}
+
 /** A warning drawn from the diagnostics, in plain words (the rules live in `shared/caveats/`). */
 export interface CaveatDto {
   code: string;
@@ -149,6 +155,8 @@ export interface OutcomeResultDto {
   n: SampleSizeDto | null;
   /** Windows only. */
   pooling: PoolingDto | null;
+  /** Fitted limits either side of the cutoff (take-up of those just eligible and just not); absent in results stored before it was kept. */
+  limits?: SideLimitsDto | null;
   caveats: CaveatDto[];
   /**
    * True when the inputs changed since (a newer extract, design version or engine) and the
@@ -250,6 +258,8 @@ export interface TrendPointDto {
   itt: InferenceDto | null;
   /** Conventional point estimate with the robust interval (the headline). */
   effect: InferenceDto | null;
+  /** Take-up just below and just above the cutoff (fitted limits, shares 0–1); null when not stored. */
+  takeUp?: { ineligible: number | null; eligible: number | null } | null;
   nUsed: number | null;
   worstCaveat: CaveatSeverity | null;
   stale: boolean;

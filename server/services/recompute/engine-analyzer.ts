@@ -75,6 +75,7 @@ function analyzeOutcome({ scope, data, settings, eligibleSide }: AnalyzeInput, o
       droppedByDonut: rows.droppedByDonut,
     },
     pooling,
+    limits: estimate.limits,
   };
   return { outcomeKey, status: 'ok', figures, caveats: interimCaveats(figures), diagnostics: null, bins };
 }
