@@ -48,7 +48,26 @@ const EnvSchema = z.object({
   CUTLINE_SMTP_USER: z.string().min(1).optional(),
   CUTLINE_SMTP_PASSWORD: z.string().min(1).optional(),
   CUTLINE_MAIL_FROM: z.string().min(3).default('Cutline <cutline@localhost>'),
+  CUTLINE_LOCALE: z.string().refine(isKnownLocale, 'CUTLINE_LOCALE must be a language tag such as en-US or de-DE').default('en-US'),
+  CUTLINE_TIME_ZONE: z.string().refine(isKnownTimeZone, 'CUTLINE_TIME_ZONE must be an IANA time zone such as America/Chicago').default('UTC'),
 });
+
+function isKnownLocale(tag: string): boolean {
+  try {
+    return Intl.getCanonicalLocales(tag).length === 1;
+  } catch {
+    return false;
+  }
+}
+
+function isKnownTimeZone(zone: string): boolean {
+  try {
+    new Intl.DateTimeFormat('en-US', { timeZone: zone });
+    return true;
+  } catch {
+    return false;
+  }
+}
 
 /** Where e-mail goes: the local fake SMTP server (development, tests) or the agency's server. */
 export type MailTransportConfig =
@@ -76,6 +95,8 @@ export interface Config {
   varDir: string;
   logLevel: z.infer<typeof EnvSchema>['CUTLINE_LOG_LEVEL'];
   app: { port: number; publicUrl: string };
+  /** How screens write numbers and dates: the agency's locale and time zone (programs may carry their own zone). */
+  agency: { locale: string; timeZone: string };
   db: { host: string; port: number; database: string; user: string; password: string };
   /** Loopback ports of the local stand-ins (identity provider, SMTP) and the private database. */
   ports: { base: number; app: number; db: number; idp: number; smtp: number };
@@ -120,6 +141,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     varDir: path.resolve(REPO_ROOT, e.CUTLINE_VAR_DIR ?? 'var'),
     logLevel: e.CUTLINE_LOG_LEVEL,
     app: { port: appPort, publicUrl },
+    agency: { locale: e.CUTLINE_LOCALE, timeZone: e.CUTLINE_TIME_ZONE },
     db: {
       host: e.CUTLINE_DB_HOST,
       port: e.CUTLINE_DB_PORT ?? base + 1,

@@ -20,6 +20,7 @@ export function meRoutes(ctx: AppContext): Router {
         idleMinutes: ctx.config.auth.session.idleMinutes,
         endsAt: sessionEndsAt(ctx.config, req.session.signedInAt ?? Date.now()).toISOString(),
       },
+      agency: ctx.config.agency,
     };
     res.set('Cache-Control', 'no-store').json(body);
   });

@@ -26,6 +26,8 @@ export interface MeDto {
     /** The session ends at this instant whatever happens (ISO 8601). */
     endsAt: string;
   };
+  /** The agency's locale (BCP 47) and time zone (IANA) for numbers and dates on screens. */
+  agency?: { locale: string; timeZone: string };
 }
 
 /** A row of `GET /api/admin/users`. */
