@@ -26,6 +26,10 @@ export interface ProgramSummaryDto {
   cohortCount: number;
   /** Latest cohort period on record, `YYYY-MM`. */
   latestPeriod: Period | null;
+  /** Plural noun for the people the program serves, e.g. "households" (summary sentences). */
+  populationLabel?: string;
+  /** What taking part is called, as a verb phrase, e.g. "take the credit". */
+  takeUpPhrase?: string;
 }
 
 /** `GET /api/programs/:programId` */

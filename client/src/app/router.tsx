@@ -13,6 +13,8 @@ export const router = createBrowserRouter([
     errorElement: <RootErrorBoundary />,
     children: [
       { index: true, lazy: async () => ({ Component: (await import('./routes/programs')).default }) },
+      { path: 'programs/:programId', lazy: async () => ({ Component: (await import('./routes/program-trends')).default }) },
+      { path: 'programs/:programId/cohorts/:period', lazy: async () => ({ Component: (await import('./routes/cohort')).default }) },
       { path: 'admin/audit', lazy: async () => ({ Component: (await import('./routes/admin/audit')).default }) },
       { path: 'admin/users', lazy: async () => ({ Component: (await import('./routes/admin/users')).default }) },
       { path: 'admin/users/:userId', lazy: async () => ({ Component: (await import('./routes/admin/user')).default }) },
