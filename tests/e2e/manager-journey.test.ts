@@ -85,6 +85,7 @@ describe('manager reads the dashboard and acknowledges a caveat', () => {
     expect(await page.locator('[data-figure="fs-robust-ci"]').textContent()).toBe(formatInterval(shutoff.firstStage?.robust.ciLow, shutoff.firstStage?.robust.ciHigh, { unit: 'share' }));
     const caveats = page.getByRole('list', { name: 'Caveats' });
     expect(await caveats.textContent()).toContain(shutoff.caveats[0]!.message);
+    await expect.poll(() => page.getByText('Drawing…').count()).toBe(0);
     await page.screenshot({ path: screenshotPath('cohort-detail'), fullPage: true });
 
     await caveats.getByRole('button', { name: 'Acknowledge this caveat' }).first().click();
