@@ -32,7 +32,7 @@ export const ESTIMATE_FLAGS: readonly FlagSpec[] = [
   { name: 'bandwidth', placeholder: 'H', description: 'bandwidth in score units (instead of a rule)', numeric: true },
   { name: 'bias-bandwidth', placeholder: 'B', description: 'bias bandwidth in score units', numeric: true },
   { name: 'bandwidth-rule', placeholder: 'RULE', description: 'bandwidth rule, default mse', choices: BANDWIDTH_RULES },
-  { name: 'variance', placeholder: 'V', description: 'variance estimator, default nearest-neighbour (hc1 with --cluster)', choices: VARIANCE_KINDS },
+  { name: 'variance', placeholder: 'V', description: 'variance estimator, default hc3 (hc1 with --cluster)', choices: VARIANCE_KINDS },
   { name: 'cluster', placeholder: 'COL', description: 'column of cluster labels (e.g. office) for cluster-robust variance' },
   { name: 'level', placeholder: 'L', description: 'confidence level, default 0.95', numeric: true },
 ];

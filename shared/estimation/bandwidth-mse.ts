@@ -36,63 +36,61 @@ export interface MseBandwidths {
   perSide: { h: [number, number]; b: [number, number] };
 }
 
+/**
+ * Plug-in stages below b: m⁽q⁺¹⁾ (b's bias constant) comes from a local fit of order q + 1 at its own
+ * MSE-optimal bandwidth, whose bias constant comes from a global polynomial of order q + 2 on each
+ * whole side — one stage more than a global pilot, so a poor global fit moves the answer less
+ * (the direct plug-in idea of Ruppert, Sheather & Wand 1995).
+ */
+export const PLUG_IN_STAGES = 3;
+
 export function mseBandwidths(data: OrientedData, order: number, kernel: KernelName, variance: VarianceSettings, pilot: number): MseBandwidths {
   if (data.columns.length !== 1) throw new RangeError('mseBandwidths: expected exactly one outcome column');
   const p = order;
   const q = p + 1;
   const n = data.n;
   const f1 = factorial(p + 1);
-  const f2 = factorial(q + 1);
   const pilotName = formatBandwidth('(pilot)', pilot);
+  const caps = data.sideRanges;
+  const cap = Math.max(caps[0], caps[1]);
 
+  // Deepest stage: a global polynomial of order q + stages on each whole side (uniform weights).
+  const deepest = q + PLUG_IN_STAGES;
+  const globalFit = fitSides(data, deepest, 'uniform', caps);
+  requireUsableFits(globalFit, 'the whole side');
+  let next = derivativeValues(data, globalFit, deepest, variance);
+  // Local stages r = deepest − 1 … q + 1, each at its own per-side MSE-optimal bandwidth.
+  for (let r = deepest - 1; r > q; r--) {
+    const stage = derivativeStage(data, r, kernel, variance, pilot, pilotName);
+    const g = [0, 1].map((s) => stageBandwidth(stage, next, s as 0 | 1, r, n, caps[s as 0 | 1])) as [number, number];
+    const fits = fitSides(data, r, kernel, g);
+    requireUsableFits(fits, formatBandwidth('(stage)', Math.min(...g)));
+    next = derivativeValues(data, fits, r, variance);
+  }
+
+  // b: the order q fit's (p+1)-th derivative. Per side, MSE of each side's m̂⁽ᵖ⁺¹⁾; common, MSE of the
+  // jump's bias term Σ ±cₛ·m̂ₛ⁽ᵖ⁺¹⁾/(p+1)! with cₛ = e₀ᵀΓₛ⁻¹ϑₛ of the order p fit at the pilot.
+  const stageB = derivativeStage(data, q, kernel, variance, pilot, pilotName);
+  const bSides = [0, 1].map((s) => stageBandwidth(stageB, next, s as 0 | 1, q, n, caps[s as 0 | 1])) as [number, number];
   const pFit = fitSides(data, p, kernel, [pilot, pilot]);
   requireUsableFits(pFit, pilotName);
-  const qFit = fitSides(data, q, kernel, [pilot, pilot]);
-  requireUsableFits(qFit, pilotName);
-  const varLimit = coefficientVariances(data, pFit, 0, () => 1, variance);
-  const vh = varLimit.map((v) => n * pilot * v);
-  const varDerivPilot = coefficientVariances(data, qFit, p + 1, (f) => f1 / Math.pow(f.h, p + 1), variance);
-  const vb = varDerivPilot.map((v) => n * Math.pow(pilot, 2 * p + 3) * v);
   const biasConst = pFit.map((f) => dot(matrixRow(f.inverse!, 0, p + 1), f.biasMoments));
-  const kappa = qFit.map((f) => f1 * dot(matrixRow(f.inverse!, p + 1, q + 1), f.biasMoments));
-
-  // Global polynomial of order q + 1 on each whole side (uniform weights) for m⁽q⁺¹⁾.
-  const globalFit = fitSides(data, q + 1, 'uniform', data.sideRanges);
-  requireUsableFits(globalFit, 'the whole side');
-  const top = globalFit.map((f) => (f2 * f.coefficients[0]![q + 1]!) / Math.pow(f.h, q + 1));
-  const varTop = coefficientVariances(data, globalFit, q + 1, (f) => f2 / Math.pow(f.h, q + 1), variance);
-
-  const cap = Math.max(data.sideRanges[0], data.sideRanges[1]);
-  const rateB = 1 / (2 * p + 5);
-  const rateH = 1 / (2 * p + 3);
-
-  // Common b: MSE of the jump's bias term Σ ±cₛ m̂ₛ⁽ᵖ⁺¹⁾/(p+1)!.
+  const fq1 = factorial(q + 1);
   let bBias = 0;
   let bReg = 0;
   let bVar = 0;
   for (let s = 0; s < 2; s++) {
-    const weight = (biasConst[s]! * kappa[s]!) / (f1 * f2);
-    bBias += SIDE_SIGN[s]! * weight * top[s]!;
-    bReg += weight * weight * varTop[s]!;
-    bVar += (biasConst[s]! * biasConst[s]! * vb[s]!) / (f1 * f1);
+    const weight = (biasConst[s]! * stageB.kappa[s]!) / (f1 * fq1);
+    bBias += SIDE_SIGN[s]! * weight * next.values[s]!;
+    bReg += weight * weight * next.variances[s]!;
+    bVar += (biasConst[s]! * biasConst[s]! * stageB.v[s]!) / (f1 * f1);
   }
-  const bCommon = plugIn((2 * p + 3) * bVar, 2 * (bBias * bBias + bReg) * n, rateB, cap);
-  // Per-side b: MSE of each side's m̂ₛ⁽ᵖ⁺¹⁾.
-  const bSides = [0, 1].map((s) => {
-    const bias = (kappa[s]! * top[s]!) / f2;
-    const reg = (kappa[s]! * kappa[s]! * varTop[s]!) / (f2 * f2);
-    return plugIn((2 * p + 3) * vb[s]!, 2 * (bias * bias + reg) * n, rateB, data.sideRanges[s as 0 | 1]);
-  }) as [number, number];
+  const bCommon = plugIn((2 * q + 1) * bVar, 2 * (bBias * bBias + bReg) * n, 1 / (2 * q + 3), cap);
 
-  // Derivatives m⁽ᵖ⁺¹⁾ from the order q fits at b, and their variances.
-  const derivatives = (b: readonly [number, number]) => {
-    const fits = fitSides(data, q, kernel, b);
-    requireUsableFits(fits, formatBandwidth('b', Math.min(b[0], b[1])));
-    const values = fits.map((f) => (f1 * f.coefficients[0]![p + 1]!) / Math.pow(f.h, p + 1));
-    const variances = coefficientVariances(data, fits, p + 1, (f) => f1 / Math.pow(f.h, p + 1), variance);
-    return { values, variances };
-  };
-  const atCommon = derivatives([bCommon, bCommon]);
+  // h: bias ≈ h^(p+1)·Σ ±cₛ mₛ⁽ᵖ⁺¹⁾/(p+1)!, variance V/(nh) with V = n·c·Σ Var(μ̂ₛ(c)).
+  const vh = coefficientVariances(data, pFit, 0, () => 1, variance).map((v) => n * pilot * v);
+  const rateH = 1 / (2 * p + 3);
+  const atCommon = derivativeValues(data, checkedFits(data, q, kernel, [bCommon, bCommon], 'b'), q, variance);
   let bias = 0;
   let reg = 0;
   for (let s = 0; s < 2; s++) {
@@ -100,15 +98,56 @@ export function mseBandwidths(data: OrientedData, order: number, kernel: KernelN
     reg += (biasConst[s]! * biasConst[s]! * atCommon.variances[s]!) / (f1 * f1);
   }
   const hCommon = plugIn(vh[0]! + vh[1]!, 2 * (p + 1) * (bias * bias + reg) * n, rateH, cap);
-
-  const atSides = derivatives(bSides);
+  const atSides = derivativeValues(data, checkedFits(data, q, kernel, bSides, 'b'), q, variance);
   const hSides = [0, 1].map((s) => {
     const bs = (biasConst[s]! * atSides.values[s]!) / f1;
     const rs = (biasConst[s]! * biasConst[s]! * atSides.variances[s]!) / (f1 * f1);
-    return plugIn(vh[s]!, 2 * (p + 1) * (bs * bs + rs) * n, rateH, data.sideRanges[s as 0 | 1]);
+    return plugIn(vh[s]!, 2 * (p + 1) * (bs * bs + rs) * n, rateH, caps[s as 0 | 1]);
   }) as [number, number];
 
   return { common: { h: hCommon, b: bCommon }, perSide: { h: hSides, b: bSides } };
+}
+
+/** Per side, m̂⁽ʳ⁾ = r!·γ̂ᵣ/hʳ from order r fits (the top coefficient) and its variance. */
+interface DerivativeValues {
+  values: [number, number];
+  variances: [number, number];
+}
+
+function derivativeValues(data: OrientedData, fits: readonly [SideFit, SideFit], r: number, variance: VarianceSettings): DerivativeValues {
+  const fr = factorial(r);
+  const values = fits.map((f) => (fr * f.coefficients[0]![r]!) / Math.pow(f.h, r)) as [number, number];
+  return { values, variances: coefficientVariances(data, fits, r, (f) => fr / Math.pow(f.h, r), variance) };
+}
+
+/**
+ * Constants of estimating m⁽ʳ⁾ by the top coefficient of an order r fit, measured at the pilot:
+ * bias ≈ g·κₛ·mₛ⁽ʳ⁺¹⁾/(r+1)! with κₛ = r!·eᵣᵀΓₛ⁻¹ϑₛ, variance ≈ Vₛ/(n·g^(2r+1)) with
+ * Vₛ = n·c^(2r+1)·Var(m̂ₛ⁽ʳ⁾(c)).
+ */
+function derivativeStage(data: OrientedData, r: number, kernel: KernelName, variance: VarianceSettings, pilot: number, pilotName: string) {
+  const fits = checkedFits(data, r, kernel, [pilot, pilot], pilotName);
+  const fr = factorial(r);
+  const kappa = fits.map((f) => fr * dot(matrixRow(f.inverse!, r, r + 1), f.biasMoments));
+  const v = coefficientVariances(data, fits, r, (f) => fr / Math.pow(f.h, r), variance).map((x) => data.n * Math.pow(pilot, 2 * r + 1) * x);
+  return { kappa, v };
+}
+
+/**
+ * Per-side MSE-optimal bandwidth for m⁽ʳ⁾: g^(2r+3) = (2r+1)·V / (2·(β² + R)·n) with β = κ·m⁽ʳ⁺¹⁾/(r+1)!
+ * and R = κ²·Var(m̂⁽ʳ⁺¹⁾)/(r+1)!² [derived from MSE(g) = g²β² + V/(n g^(2r+1))].
+ */
+function stageBandwidth(stage: { kappa: number[]; v: number[] }, next: DerivativeValues, s: 0 | 1, r: number, n: number, cap: number): number {
+  const fr1 = factorial(r + 1);
+  const beta = (stage.kappa[s]! * next.values[s]) / fr1;
+  const reg = (stage.kappa[s]! ** 2 * next.variances[s]) / (fr1 * fr1);
+  return plugIn((2 * r + 1) * stage.v[s]!, 2 * (beta * beta + reg) * n, 1 / (2 * r + 3), cap);
+}
+
+function checkedFits(data: OrientedData, r: number, kernel: KernelName, h: readonly [number, number], name: string): [SideFit, SideFit] {
+  const fits = fitSides(data, r, kernel, h);
+  requireUsableFits(fits, name.startsWith('the ') ? name : formatBandwidth(name, Math.min(h[0], h[1])));
+  return fits;
 }
 
 /** Per side, the variance of scale(fit)·(coefficient `index`) of the fit, residuals from the same fit. */

@@ -1,5 +1,5 @@
 import { ikBandwidth } from './bandwidth-ik';
-import { mseBandwidths } from './bandwidth-mse';
+import { mseBandwidths, PLUG_IN_STAGES } from './bandwidth-mse';
 import { EstimationError } from './errors';
 import { fitsUsable } from './fit-checks';
 import { fitSides } from './local-polynomial';
@@ -35,7 +35,7 @@ export function coverageShrink(n: number, order: number): number {
 /**
  * Pilot bandwidth 1.84·S·n^(−1/5) (Imbens & Kalyanaraman's step 1, METHODS §3b; S the standard
  * deviation of the score), widened by half at a time until both sides have enough observations for
- * the order p + 1 fit (common practice, no source).
+ * the deepest local fit of the MSE rule, order p + PLUG_IN_STAGES (common practice, no source).
  */
 export function pilotBandwidth(data: OrientedData, order: number, kernel: KernelName): number {
   const { t, n } = data;
@@ -49,7 +49,7 @@ export function pilotBandwidth(data: OrientedData, order: number, kernel: Kernel
   let h = Math.min(cap, 1.84 * sd * Math.pow(n, -0.2));
   const probe = withColumns(data, []);
   for (let attempt = 0; attempt < 60; attempt++) {
-    if (h > 0 && fitsUsable(fitSides(probe, order + 1, kernel, [h, h]))) return h;
+    if (h > 0 && fitsUsable(fitSides(probe, order + PLUG_IN_STAGES, kernel, [h, h]))) return h;
     if (h >= cap) break;
     h = Math.min(cap, h > 0 ? h * 1.5 : cap);
   }
@@ -94,6 +94,12 @@ export function chooseBandwidths(data: OrientedData, settings: BandwidthSettings
   } else if (data.columns.length !== 1) {
     throw new RangeError('chooseBandwidths: expected one or two columns');
   }
+  if (isConstant(single.columns[0]!)) {
+    throw new EstimationError(
+      'bandwidth_undefined',
+      'The outcome does not vary, so no bandwidth can be chosen from the data; give a bandwidth instead.',
+    );
+  }
   const variance = { kind: settings.variance, neighbourResiduals: residuals };
   const mse = mseBandwidths(single, order, kernel, variance, pilot);
   const both = (v: number): [number, number] => [v, v];
@@ -109,4 +115,10 @@ export function chooseBandwidths(data: OrientedData, settings: BandwidthSettings
       if (order !== 1) throw new RangeError('chooseBandwidths: the Imbens–Kalyanaraman rule is for local linear fits (order 1)');
       return { rule, h: both(ikBandwidth(single, kernel, pilot)), b: both(mse.common.b), pilot: pilotInfo };
   }
+}
+
+function isConstant(values: Float64Array): boolean {
+  const first = values[0];
+  for (let i = 1; i < values.length; i++) if (values[i] !== first) return false;
+  return true;
 }

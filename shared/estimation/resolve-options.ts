@@ -51,7 +51,7 @@ export function resolveOptions(fn: string, options: DiscontinuityOptions, cluste
   if (biasBandwidth !== null && (!(biasBandwidth > 0) || !Number.isFinite(biasBandwidth))) {
     throw new RangeError(`${fn}: options.biasBandwidth must be a positive number`);
   }
-  const variance = options.variance ?? (clustered ? 'hc1' : 'nearest-neighbour');
+  const variance = options.variance ?? (clustered ? 'hc1' : 'hc3');
   if (!VARIANCE_KINDS.includes(variance)) throw new RangeError(`${fn}: options.variance must be one of ${VARIANCE_KINDS.join(', ')}`);
   if (clustered && variance !== 'hc0' && variance !== 'hc1') {
     // Nearest-neighbour residuals assume independent observations (Noack, Olma & Rothe, METHODS §2c);

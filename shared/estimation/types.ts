@@ -60,7 +60,10 @@ export interface DiscontinuityOptions {
    * fit at h).
    */
   biasBandwidth?: number;
-  /** Default `nearest-neighbour` without clusters, `hc1` with clusters. */
+  /**
+   * Default `hc3` without clusters (its intervals kept closest to nominal in our small-sample
+   * simulations, tests/reference/lee-design.test.ts), `hc1` with clusters.
+   */
   variance?: VarianceKind;
   /** Neighbours J of the nearest-neighbour variance. Default 3. */
   neighbours?: number;
