@@ -3,6 +3,7 @@ import { formatBandwidth, requireUsableFits } from './fit-checks';
 import { fitSides, type SideFit } from './local-polynomial';
 import { factorial } from './math';
 import { SIDE_SIGN, type OrientedData } from './oriented-data';
+import { kernelWeight } from './kernels';
 import { dot, matrixRow } from './small-matrix';
 import type { KernelName } from './types';
 import { functionalCovariance, type VarianceSettings } from './variance';
@@ -58,14 +59,14 @@ export function mseBandwidths(data: OrientedData, order: number, kernel: KernelN
   const deepest = q + PLUG_IN_STAGES;
   const globalFit = fitSides(data, deepest, 'uniform', caps);
   requireUsableFits(globalFit, 'the whole side');
-  let next = derivativeValues(data, globalFit, deepest, variance);
+  let next = globalDerivatives(data, globalFit, deepest);
   // Local stages r = deepest − 1 … q + 1, each at its own per-side MSE-optimal bandwidth.
   for (let r = deepest - 1; r > q; r--) {
     const stage = derivativeStage(data, r, kernel, variance, pilot, pilotName);
     const g = [0, 1].map((s) => stageBandwidth(stage, next, s as 0 | 1, r, n, caps[s as 0 | 1])) as [number, number];
     const fits = fitSides(data, r, kernel, g);
     requireUsableFits(fits, formatBandwidth('(stage)', Math.min(...g)));
-    next = derivativeValues(data, fits, r, variance);
+    next = localDerivatives(fits, r, stage, n);
   }
 
   // b: the order q fit's (p+1)-th derivative. Per side, MSE of each side's m̂⁽ᵖ⁺¹⁾; common, MSE of the
@@ -90,7 +91,7 @@ export function mseBandwidths(data: OrientedData, order: number, kernel: KernelN
   // h: bias ≈ h^(p+1)·Σ ±cₛ mₛ⁽ᵖ⁺¹⁾/(p+1)!, variance V/(nh) with V = n·c·Σ Var(μ̂ₛ(c)).
   const vh = coefficientVariances(data, pFit, 0, () => 1, variance).map((v) => n * pilot * v);
   const rateH = 1 / (2 * p + 3);
-  const atCommon = derivativeValues(data, checkedFits(data, q, kernel, [bCommon, bCommon], 'b'), q, variance);
+  const atCommon = localDerivatives(checkedFits(data, q, kernel, [bCommon, bCommon], 'b'), q, stageB, n);
   let bias = 0;
   let reg = 0;
   for (let s = 0; s < 2; s++) {
@@ -98,7 +99,7 @@ export function mseBandwidths(data: OrientedData, order: number, kernel: KernelN
     reg += (biasConst[s]! * biasConst[s]! * atCommon.variances[s]!) / (f1 * f1);
   }
   const hCommon = plugIn(vh[0]! + vh[1]!, 2 * (p + 1) * (bias * bias + reg) * n, rateH, cap);
-  const atSides = derivativeValues(data, checkedFits(data, q, kernel, bSides, 'b'), q, variance);
+  const atSides = localDerivatives(checkedFits(data, q, kernel, bSides, 'b'), q, stageB, n);
   const hSides = [0, 1].map((s) => {
     const bs = (biasConst[s]! * atSides.values[s]!) / f1;
     const rs = (biasConst[s]! * biasConst[s]! * atSides.variances[s]!) / (f1 * f1);
@@ -108,16 +109,52 @@ export function mseBandwidths(data: OrientedData, order: number, kernel: KernelN
   return { common: { h: hCommon, b: bCommon }, perSide: { h: hSides, b: bSides } };
 }
 
-/** Per side, m̂⁽ʳ⁾ = r!·γ̂ᵣ/hʳ from order r fits (the top coefficient) and its variance. */
+/** Per side, an estimate of m⁽ʳ⁾ and its variance (the regularisation of the next stage). */
 interface DerivativeValues {
   values: [number, number];
   variances: [number, number];
 }
 
-function derivativeValues(data: OrientedData, fits: readonly [SideFit, SideFit], r: number, variance: VarianceSettings): DerivativeValues {
+/**
+ * m̂⁽ʳ⁾ = r!·γ̂ᵣ/gʳ from local fits of order r at g, with the variance Vₛ/(n·g^(2r+1)) from the
+ * stage's pilot constant — the same leading-order scaling the MSE formula itself uses, so no
+ * residual pass is needed at g.
+ */
+function localDerivatives(fits: readonly [SideFit, SideFit], r: number, stage: { v: number[] }, n: number): DerivativeValues {
   const fr = factorial(r);
   const values = fits.map((f) => (fr * f.coefficients[0]![r]!) / Math.pow(f.h, r)) as [number, number];
-  return { values, variances: coefficientVariances(data, fits, r, (f) => fr / Math.pow(f.h, r), variance) };
+  const variances = fits.map((f, s) => stage.v[s]! / (n * Math.pow(f.h, 2 * r + 1))) as [number, number];
+  return { values, variances };
+}
+
+/**
+ * m̂⁽ᴰ⁾ from the global polynomials (uniform weights over each whole side) with the homoskedastic
+ * OLS variance σ̂²·[(XᵀX)⁻¹]_DD, σ̂² = RSS/(n − k), RSS from sums (Σy² − γ̂ᵀXᵀy): the deepest stage
+ * only regularises, so it need not be heteroskedasticity-robust, and this spares a pass over all
+ * rows. With constant weights w, Var(γ̂) = RSS_w·A/(n − k) where A = (XᵀWX)⁻¹ and RSS_w = w·RSS [derived].
+ */
+function globalDerivatives(data: OrientedData, fits: readonly [SideFit, SideFit], r: number): DerivativeValues {
+  const y = data.columns[0]!;
+  const squares = [0, 0];
+  for (const s of [0, 1] as const) {
+    const [lo, hi] = s === 0 ? [0, data.split] : [data.split, data.n];
+    let sum = 0;
+    for (let i = lo; i < hi; i++) sum += y[i]! * y[i]!;
+    squares[s] = sum;
+  }
+  const fr = factorial(r);
+  const k = r + 1;
+  const values = fits.map((f) => (fr * f.coefficients[0]![r]!) / Math.pow(f.h, r)) as [number, number];
+  const variances = fits.map((f, s) => {
+    const gamma = f.coefficients[0]!;
+    const w = kernelWeight(f.kernelCode, 0);
+    let fitted = 0;
+    for (let a = 0; a < k; a++) for (let b = 0; b < k; b++) fitted += gamma[a]! * f.gram[a * k + b]! * gamma[b]!;
+    const rss = Math.max(0, w * squares[s]! - fitted);
+    const scale = fr / Math.pow(f.h, r);
+    return f.used > k ? (scale * scale * rss * f.inverse![r * k + r]!) / (f.used - k) : Infinity;
+  }) as [number, number];
+  return { values, variances };
 }
 
 /**

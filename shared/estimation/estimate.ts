@@ -139,14 +139,16 @@ export function selectBandwidth(data: DiscontinuityData, options: DiscontinuityO
 /**
  * Orients and checks the data. A given bandwidth with a residual-based variance needs only the
  * observations inside max(h, b): those are copied out and every later pass is over them alone.
- * Otherwise (a bandwidth rule, or nearest-neighbour residuals) every observation is sorted by score.
+ * A bandwidth rule needs every observation, binned by distance from the cutoff; the
+ * nearest-neighbour variance needs them sorted.
  */
 function orientData(fn: string, data: DiscontinuityData, resolved: ResolvedOptions): OrientedData {
   const columns = data.takeUp ? [data.outcome, data.takeUp] : [data.outcome];
   const spec = resolved.bandwidth;
-  const window = typeof spec === 'number' && resolved.variance !== 'nearest-neighbour' ? Math.max(spec, resolved.biasBandwidth ?? spec) : null;
+  const neighbours = resolved.variance === 'nearest-neighbour';
+  const window = typeof spec === 'number' && !neighbours ? Math.max(spec, resolved.biasBandwidth ?? spec) : null;
   const raw = { score: data.score, columns, cluster: data.cluster ?? null };
-  const oriented = prepareData(fn, raw, resolved.cutoff, resolved.eligibleSide, data.takeUp ? 1 : null, window);
+  const oriented = prepareData(fn, raw, resolved.cutoff, resolved.eligibleSide, data.takeUp ? 1 : null, window, neighbours ? 'sorted' : 'bucketed');
   for (const s of [0, 1] as const) {
     if (oriented.sideCounts[s] === 0) {
       throw new EstimationError('too_few_observations', `No observation lies on the ${SIDE_WORD[s]} side of the cutoff.`, { side: SIDE_WORD[s], used: 0 });

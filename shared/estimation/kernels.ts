@@ -12,23 +12,36 @@ export function kernelCode(kernel: KernelName): number {
 
 /**
  * K(u) on the support |u| ≤ 1 (METHODS §1a): triangular (1 − |u|), Epanechnikov 0.75·(1 − u²),
- * uniform 0.5. Zero outside the support (callers keep h > 0, so u is never NaN). Constant factors cancel in every estimate and
- * sandwich variance; they matter only in the asymptotic constants below.
+ * uniform 0.5. Zero outside the support. Constant factors cancel in every estimate and sandwich
+ * variance; they matter only in the asymptotic constants below.
  *
- * Branch-free on u — max(0, v) as (v + |v|)/2, exact in floating point — because with observations
- * in random order a data-dependent branch mispredicts half the time and costs more than the sums.
+ * Written as one branch-free formula, K(u) = c₀·(v₁ + |v₁|) + c₁·(v₂ + |v₂|) + c₂·[|u| ≤ 1] with
+ * v₁ = 1 − |u|, v₂ = 1 − u² (so c·(v + |v|) = 2c·max(0, v), exactly), and per-kernel constants
+ * (c₀, c₁, c₂): with rows in random order a data-dependent branch mispredicts, and V8 keeps this
+ * inlined in hot loops where a switch on the kernel would not be.
  */
-export function kernelWeight(code: number, u: number): number {
+export function kernelCoefficients(code: number): readonly [number, number, number] {
+  return KERNEL_COEFFICIENTS[code] ?? KERNEL_COEFFICIENTS[0]!;
+}
+
+const KERNEL_COEFFICIENTS: readonly (readonly [number, number, number])[] = [
+  [0.5, 0, 0], // triangular
+  [0, 0.375, 0], // Epanechnikov
+  [0, 0, 0.5], // uniform
+];
+
+/** K(u) from `kernelCoefficients` (callers keep h > 0, so u is never NaN). */
+export function weightOf(c0: number, c1: number, c2: number, u: number): number {
   const a = Math.abs(u);
-  if (code === 0) {
-    const v = 1 - a;
-    return (v + Math.abs(v)) * 0.5;
-  }
-  if (code === 1) {
-    const v = 1 - a * a;
-    return 0.375 * (v + Math.abs(v));
-  }
-  return 0.5 * +(a <= 1);
+  const v1 = 1 - a;
+  const v2 = 1 - a * a;
+  return c0 * (v1 + Math.abs(v1)) + c1 * (v2 + Math.abs(v2)) + c2 * +(a <= 1);
+}
+
+/** K(u) for the kernel with this code (convenient outside hot loops). */
+export function kernelWeight(code: number, u: number): number {
+  const [c0, c1, c2] = kernelCoefficients(code);
+  return weightOf(c0, c1, c2, u);
 }
 
 /** ν_j = ∫₀¹ u^j K(u) du, in closed form. */

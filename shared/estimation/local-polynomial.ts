@@ -1,4 +1,5 @@
-import { kernelCode, kernelWeight } from './kernels';
+import { kernelCode } from './kernels';
+import { accumulateMoments } from './moment-sums';
 import { ELIGIBLE, INELIGIBLE, prepareData, sideRange, type OrientedData, type SideIndex } from './oriented-data';
 import { invertSymmetric } from './small-matrix';
 import type { KernelName } from './types';
@@ -46,27 +47,17 @@ export function fitSides(data: OrientedData, order: number, kernel: KernelName, 
     const hs = h[side];
     if (!(hs > 0)) continue; // no window: the side's fit comes out unusable
     const [lo, hi] = sideRange(data, side, hs);
-    const base = side * powers;
-    let count = 0;
-    for (let i = lo; i < hi; i++) {
-      const u = t[i]! / hs;
-      const w = kernelWeight(code, u);
-      count += +(w > 0);
-      let pw = w;
-      for (let j = 0; j < powers; j++) {
-        sums[base + j]! += pw;
-        pw *= u;
-      }
-      for (let c = 0; c < cols; c++) {
-        const cb = (side * cols + c) * k;
-        let py = w * columns[c]![i]!;
-        for (let j = 0; j < k; j++) {
-          cross[cb + j]! += py;
-          py *= u;
-        }
-      }
-    }
-    used[side] = count;
+    used[side] = accumulateMoments(
+      t,
+      lo,
+      hi,
+      hs,
+      code,
+      m,
+      columns,
+      sums.subarray(side * powers, (side + 1) * powers),
+      cross.subarray(side * cols * k, (side + 1) * cols * k),
+    );
   }
   const build = (side: SideIndex): SideFit => {
     const base = side * powers;

@@ -18,10 +18,10 @@ const TIE_RELATIVE = 1e-9;
  * Works per group of equal scores: members share one neighbour set apart from themselves, so
  * heavily tied scores cost O(group size), not its square.
  *
- * Needs every observation, sorted by score (`prepareData` with no window).
+ * Needs every observation, sorted by score (`prepareData`'s sorted layout).
  */
 export function nearestNeighbourResiduals(data: OrientedData, neighbours: number): Float64Array[] {
-  if (!data.sorted || !data.complete) throw new RangeError('nearestNeighbourResiduals: needs every observation sorted by score');
+  if (data.layout !== 'sorted') throw new RangeError('nearestNeighbourResiduals: needs every observation sorted by score');
   const { t, columns, n } = data;
   const cols = columns.length;
   const out = columns.map(() => new Float64Array(n));

@@ -14,10 +14,15 @@ export const SIDE_SIGN = [-1, 1] as const;
  * program's convention, and every fit deals with one orientation only. Distances and bandwidths
  * keep score units.
  *
- * Entries are grouped by side, so loops run per side without a data-dependent branch. Two layouts
- * keep passes short: `sorted` (t ascending, every observation), where any window |t| ≤ h is a
- * contiguous index range found by binary search; or a compact copy of only the observations inside
- * one window (`complete` false), for estimates at a given bandwidth.
+ * Entries are grouped by side (ineligible first), so loops run per side without a data-dependent
+ * branch, in one of three layouts that keep windowed passes short:
+ * - `sorted`: every observation, t ascending; a window |t| ≤ h is an index range found by binary
+ *   search. Needed by the nearest-neighbour variance.
+ * - `bucketed`: every observation, each side cut into `BUCKETS` equal-width bins of |t| and ordered
+ *   by bin (a counting sort: two passes, no comparisons); a window is the range of the bins it
+ *   touches. Enough for every bandwidth rule.
+ * - `compact`: only the observations inside one window, for estimates at a given bandwidth.
+ * In every layout callers still weight each entry; ranges only bound the work.
  */
 export interface OrientedData {
   /** Oriented centred score, score units. */
@@ -31,15 +36,19 @@ export interface OrientedData {
   n: number;
   /** Index of the first eligible entry: ineligible entries are [0, split), eligible [split, n). */
   split: number;
-  /** Whether t is ascending (otherwise only grouped by side). */
-  sorted: boolean;
+  layout: 'sorted' | 'bucketed' | 'compact';
   /** Whether the arrays hold every observation (false for a compact window copy). */
   complete: boolean;
+  /** Bucketed layout: start index of each bin, ineligible bins then eligible bins, plus the end (2·BUCKETS + 1). */
+  bucketStarts: Int32Array | null;
   /** Observations per side in the whole data, indexed by `SideIndex`. */
   sideCounts: [number, number];
   /** Largest |t| per side in the whole data (0 when a side is empty; the window for a compact copy), score units. */
   sideRanges: [number, number];
 }
+
+/** Bins per side of the bucketed layout: windows then overrun by at most one bin's worth of rows. */
+export const BUCKETS = 256;
 
 /** Raw columns after type and length checks. */
 export interface RawColumns {
@@ -50,13 +59,12 @@ export interface RawColumns {
 
 /**
  * Checks every value (finite; column `takeUpColumn`, when given, 0 or 1), orients the score and
- * counts each side in one pass; then either sorts every observation by t (`window` null) or, in a
- * second pass, copies out only those with |t| ≤ window, ineligible ones first.
+ * counts each side in one pass; then lays the data out: `window` given ⇒ a compact copy of the
+ * rows with |t| ≤ window; otherwise `sorted` or `bucketed` (see `OrientedData`).
  *
- * Both passes are branch-free per row (x − x is 0 only for finite x, d·(1 − d) only for d ∈ {0, 1};
- * rows outside the window are written to a spare slot): with rows in random order a data-dependent
- * branch mispredicts and costs more than the arithmetic. A failed check reruns a slow pass for the
- * message.
+ * Every pass is branch-free per row (x − x is 0 only for finite x, d·(1 − d) only for d ∈ {0, 1};
+ * rows outside the window go to a spare slot): with rows in random order a data-dependent branch
+ * mispredicts and costs more than the arithmetic. A failed check reruns a slow pass for the message.
  * @throws RangeError naming `fn` and the first bad entry.
  */
 export function prepareData(
@@ -66,6 +74,7 @@ export function prepareData(
   eligibleSide: EligibleSide,
   takeUpColumn: number | null,
   window: number | null,
+  layout: 'sorted' | 'bucketed' = 'sorted',
 ): OrientedData {
   const { score, columns, cluster } = raw;
   const n = score.length;
@@ -105,13 +114,26 @@ export function prepareData(
   if (bad !== 0) throw firstBadValue(fn, score, columns, takeUpColumn);
   const sideCounts: [number, number] = [n - n1, n1];
   if (t) {
+    if (layout === 'bucketed') return bucketed(t, columns, cluster, n1, sideCounts);
     const order = sortOrder(t);
     const st = gather(t, order);
     const cols = columns.map((col) => gather(col, order));
     const dense = cluster ? densifyCodes(gatherInt(cluster, order)) : null;
     const split = n - n1;
     const sideRanges: [number, number] = [split > 0 ? -st[0]! : 0, n1 > 0 ? st[n - 1]! : 0];
-    return { t: st, columns: cols, cluster: dense?.codes ?? null, clusterCount: dense?.count ?? 0, n, split, sorted: true, complete: true, sideCounts, sideRanges };
+    return {
+      t: st,
+      columns: cols,
+      cluster: dense?.codes ?? null,
+      clusterCount: dense?.count ?? 0,
+      n,
+      split,
+      layout: 'sorted',
+      complete: true,
+      bucketStarts: null,
+      sideCounts,
+      sideRanges,
+    };
   }
   // Compact copy: row i goes to the next slot of its side, or to the spare slot `size` when outside.
   const size = in0 + in1;
@@ -139,8 +161,9 @@ export function prepareData(
     clusterCount: dense?.count ?? 0,
     n: size,
     split: in0,
-    sorted: false,
+    layout: 'compact',
     complete: false,
+    bucketStarts: null,
     sideCounts,
     sideRanges: [limit, limit],
   };
@@ -153,11 +176,90 @@ export function withColumns(data: OrientedData, columns: readonly Float64Array[]
 
 /**
  * Index range [lo, hi) of one side holding every entry with |t| ≤ h on that side: a binary search
- * on sorted data, the whole side otherwise. Callers still weight (or test) entries inside it.
+ * in the sorted layout, the bins up to h in the bucketed one, the whole side otherwise.
  */
 export function sideRange(data: OrientedData, side: SideIndex, h: number): [number, number] {
-  if (side === INELIGIBLE) return [data.sorted ? lowerBound(data.t, -h) : 0, data.split];
-  return [data.split, data.sorted ? upperBound(data.t, h) : data.n];
+  const { layout, split, n } = data;
+  if (layout === 'sorted') return side === INELIGIBLE ? [lowerBound(data.t, -h), split] : [split, upperBound(data.t, h)];
+  if (layout === 'bucketed' && data.bucketStarts) {
+    const range = data.sideRanges[side];
+    // One bin of margin: the bin of a row at exactly |t| = h may round up by one.
+    const last = range > 0 ? Math.min(BUCKETS - 1, Math.floor((h / range) * BUCKETS) + 1) : BUCKETS - 1;
+    const starts = data.bucketStarts;
+    return side === INELIGIBLE ? [0, starts[last + 1]!] : [split, starts[BUCKETS + last + 1]!];
+  }
+  return side === INELIGIBLE ? [0, split] : [split, n];
+}
+
+/**
+ * Counting sort into `BUCKETS` bins of |t| per side (bin 0 nearest the cutoff), ineligible side
+ * first: one pass to count, one to scatter every column straight to its place (few enough bins
+ * that the write positions stay in cache). Order inside a bin is input order.
+ */
+function bucketed(t: Float64Array, columns: readonly Float64Array[], cluster: Int32Array | null, n1: number, sideCounts: [number, number]): OrientedData {
+  const n = t.length;
+  let r0 = 0;
+  let r1 = 0;
+  for (let i = 0; i < n; i++) {
+    const v = t[i]!;
+    if (v > r1) r1 = v;
+    if (-v > r0) r0 = -v;
+  }
+  // Bin of row i: side·BUCKETS + min(BUCKETS − 1, ⌊|t|·BUCKETS/range⌋).
+  const scale0 = r0 > 0 ? BUCKETS / r0 : 0;
+  const scale1 = r1 > 0 ? BUCKETS / r1 : 0;
+  const top = BUCKETS - 1;
+  const cursor = new Int32Array(2 * BUCKETS + 1);
+  for (let i = 0; i < n; i++) {
+    const v = t[i]!;
+    const e = +(v >= 0);
+    const b = e * BUCKETS + Math.min(top, (Math.abs(v) * (e * scale1 + (1 - e) * scale0)) | 0);
+    cursor[b + 1]!++;
+  }
+  for (let b = 1; b <= 2 * BUCKETS; b++) cursor[b]! += cursor[b - 1]!;
+  const starts = cursor.slice();
+  const st = new Float64Array(n);
+  const cols = columns.map(() => new Float64Array(n));
+  const y0 = columns[0];
+  const y1 = columns[1];
+  const c0 = cols[0];
+  const c1 = cols[1];
+  const labels = cluster ? new Int32Array(n) : null;
+  for (let i = 0; i < n; i++) {
+    const v = t[i]!;
+    const e = +(v >= 0);
+    const b = e * BUCKETS + Math.min(top, (Math.abs(v) * (e * scale1 + (1 - e) * scale0)) | 0);
+    const j = cursor[b]!++;
+    st[j] = v;
+    if (y0 && c0) c0[j] = y0[i]!;
+    if (y1 && c1) c1[j] = y1[i]!;
+    if (labels && cluster) labels[j] = cluster[i]!;
+  }
+  for (let c = 2; c < columns.length; c++) {
+    const out = cols[c]!;
+    const col = columns[c]!;
+    cursor.set(starts);
+    for (let i = 0; i < n; i++) {
+      const v = t[i]!;
+      const e = +(v >= 0);
+      const b = e * BUCKETS + Math.min(top, (Math.abs(v) * (e * scale1 + (1 - e) * scale0)) | 0);
+      out[cursor[b]!++] = col[i]!;
+    }
+  }
+  const dense = labels ? densifyCodes(labels) : null;
+  return {
+    t: st,
+    columns: cols,
+    cluster: dense?.codes ?? null,
+    clusterCount: dense?.count ?? 0,
+    n,
+    split: n - n1,
+    layout: 'bucketed',
+    complete: true,
+    bucketStarts: starts,
+    sideCounts,
+    sideRanges: [r0, r1],
+  };
 }
 
 /** First index with t[i] ≥ value. */

@@ -1,5 +1,5 @@
 import { EstimationError } from './errors';
-import { kernelWeight } from './kernels';
+import { kernelCoefficients, kernelWeight } from './kernels';
 import type { SideFit } from './local-polynomial';
 import { polynomialAt } from './local-polynomial';
 import { sideRange, type OrientedData } from './oriented-data';
@@ -64,58 +64,22 @@ export function functionalCovariance(
   if (kind === 'nearest-neighbour' && (!nn || nn.length !== cols)) {
     throw new RangeError('functionalCovariance: nearest-neighbour residuals are missing');
   }
-  const leveraged = kind === 'hc2' || kind === 'hc3';
   const matrices = [new Float64Array(cc), new Float64Array(cc)];
   const inWindow = [0, 0];
   const clusterSums = cluster ? new Float64Array(2 * clusterCount * cols) : null;
   const touched = cluster ? new Uint8Array(2 * clusterCount) : null;
-  const resid = new Float64Array(cols);
   for (const s of [0, 1] as const) {
     const f = functionals[s]!;
-    const terms = f.terms;
-    const reach = Math.max(...terms.map((term) => term.fit.h));
+    const reach = Math.max(...f.terms.map((term) => term.fit.h));
     const [lo, hi] = sideRange(data, s, reach);
-    const rf = f.residualFit;
-    const mat = matrices[s]!;
-    let count = 0;
-    for (let i = lo; i < hi; i++) {
-      const ti = t[i]!;
-      let omega = 0;
-      let inside = 0;
-      for (let j = 0; j < terms.length; j++) {
-        const term = terms[j]!;
-        const u = ti / term.fit.h;
-        const w = kernelWeight(term.fit.kernelCode, u);
-        inside += w;
-        omega += w * polynomialAt(term.row, u);
-      }
-      if (!(inside > 0)) continue;
-      count++;
-      const ur = ti / rf.h;
-      if (nn) {
-        for (let c = 0; c < cols; c++) resid[c] = nn[c]![i]!;
-      } else {
-        for (let c = 0; c < cols; c++) resid[c] = columns[c]![i]! - polynomialAt(rf.coefficients[c]!, ur);
-      }
-      let adjust = 1;
-      if (leveraged) {
-        const lev = leverage(rf, ur);
-        const room = 1 - lev;
-        if (!(room > 1e-10)) {
-          throw new EstimationError('singular_fit', 'An observation decides its own fitted value (leverage 1), so HC2/HC3 are undefined; widen the bandwidth or use hc0/hc1.');
-        }
-        adjust = kind === 'hc2' ? 1 / room : 1 / (room * room);
-      }
-      const o2 = omega * omega * adjust;
-      for (let a = 0; a < cols; a++) for (let b = 0; b < cols; b++) mat[a * cols + b]! += o2 * resid[a]! * resid[b]!;
-      if (clusterSums && touched && cluster) {
-        const g = cluster[i]!;
-        touched[s * clusterCount + g] = 1;
-        const base = (s * clusterCount + g) * cols;
-        for (let c = 0; c < cols; c++) clusterSums[base + c]! += omega * resid[c]!;
-      }
+    const fast = !cluster && cols <= 2 && f.terms.length <= 2 && f.terms.every((term) => term.row.length <= 6) && f.residualFit.order <= 5;
+    const pass = fast
+      ? unrolledSide(t, lo, hi, f, columns, nn, kind, matrices[s]!)
+      : generalSide(t, lo, hi, f, columns, nn, kind, matrices[s]!, cluster, clusterCount, clusterSums, touched, s);
+    if (pass.badLeverage) {
+      throw new EstimationError('singular_fit', 'An observation decides its own fitted value (leverage 1), so HC2/HC3 are undefined; widen the bandwidth or use hc0/hc1.');
     }
-    inWindow[s] = count;
+    inWindow[s] = pass.count;
   }
   if (!clusterSums || !touched) {
     const sides = matrices.map((m, s) => {
@@ -163,6 +127,164 @@ export function functionalCovariance(
   return { sides: sides as [Float64Array, Float64Array], jump, clusters: groups };
 }
 
+interface SidePass {
+  /** Entries with positive weight in some term. */
+  count: number;
+  /** Whether some entry had leverage 1 (HC2/HC3 undefined). */
+  badLeverage: boolean;
+}
+
+/** The general pass: any number of terms and columns, clusters. */
+function generalSide(
+  t: Float64Array,
+  lo: number,
+  hi: number,
+  f: SideFunctional,
+  columns: readonly Float64Array[],
+  nn: readonly Float64Array[] | null,
+  kind: VarianceKind,
+  mat: Float64Array,
+  cluster: Int32Array | null,
+  clusterCount: number,
+  clusterSums: Float64Array | null,
+  touched: Uint8Array | null,
+  s: number,
+): SidePass {
+  const cols = columns.length;
+  const resid = new Float64Array(cols);
+  const terms = f.terms;
+  const rf = f.residualFit;
+  const leveraged = kind === 'hc2' || kind === 'hc3';
+  let count = 0;
+  for (let i = lo; i < hi; i++) {
+    const ti = t[i]!;
+    let omega = 0;
+    let inside = 0;
+    for (let j = 0; j < terms.length; j++) {
+      const term = terms[j]!;
+      const u = ti / term.fit.h;
+      const w = kernelWeight(term.fit.kernelCode, u);
+      inside += w;
+      omega += w * polynomialAt(term.row, u);
+    }
+    if (!(inside > 0)) continue;
+    count++;
+    const ur = ti / rf.h;
+    if (nn) {
+      for (let c = 0; c < cols; c++) resid[c] = nn[c]![i]!;
+    } else {
+      for (let c = 0; c < cols; c++) resid[c] = columns[c]![i]! - polynomialAt(rf.coefficients[c]!, ur);
+    }
+    let adjust = 1;
+    if (leveraged) {
+      const room = 1 - leverage(rf, ur);
+      if (!(room > 1e-10)) return { count, badLeverage: true };
+      adjust = kind === 'hc2' ? 1 / room : 1 / (room * room);
+    }
+    const o2 = omega * omega * adjust;
+    for (let a = 0; a < cols; a++) for (let b = 0; b < cols; b++) mat[a * cols + b]! += o2 * resid[a]! * resid[b]!;
+    if (clusterSums && touched && cluster) {
+      const g = cluster[i]!;
+      touched[s * clusterCount + g] = 1;
+      const base = (s * clusterCount + g) * cols;
+      for (let c = 0; c < cols; c++) clusterSums[base + c]! += omega * resid[c]!;
+    }
+  }
+  return { count, badLeverage: false };
+}
+
+/** Coefficients padded with zeros to six, so Horner's rule unrolls. */
+type Six = [number, number, number, number, number, number];
+function pad6(values: Float64Array | null): Six {
+  const out: Six = [0, 0, 0, 0, 0, 0];
+  if (values) for (let j = 0; j < Math.min(6, values.length); j++) out[j] = values[j]!;
+  return out;
+}
+
+/**
+ * The common case written out with scalars (one or two terms, one or two columns, orders up to 5,
+ * no clusters): every polynomial is a six-coefficient Horner chain and the leverage rᵀAr is one
+ * polynomial in u of degree ≤ 10 (the anti-diagonal sums of A), so the loop has no inner loops and
+ * no data-dependent branches. Same sums as `generalSide` up to rounding order.
+ */
+function unrolledSide(
+  t: Float64Array,
+  lo: number,
+  hi: number,
+  f: SideFunctional,
+  columns: readonly Float64Array[],
+  nn: readonly Float64Array[] | null,
+  kind: VarianceKind,
+  mat: Float64Array,
+): SidePass {
+  const cols = columns.length;
+  const [first, second] = f.terms as [FunctionalTerm, FunctionalTerm | undefined];
+  const rf = f.residualFit;
+  const [p0, p1, p2] = kernelCoefficients(first.fit.kernelCode);
+  const [q0, q1, q2] = kernelCoefficients(second ? second.fit.kernelCode : 0);
+  const [g0, g1, g2] = kernelCoefficients(rf.kernelCode);
+  const ih1 = 1 / first.fit.h;
+  const ih2 = second ? 1 / second.fit.h : 0;
+  const has2 = second ? 1 : 0;
+  const ihr = 1 / rf.h;
+  const [a0, a1, a2, a3, a4, a5] = pad6(first.row);
+  const [b0, b1, b2, b3, b4, b5] = pad6(second ? second.row : null);
+  const [c0, c1, c2, c3, c4, c5] = pad6(rf.coefficients[0] ?? null);
+  const [d0, d1, d2, d3, d4, d5] = pad6(rf.coefficients[1] ?? null);
+  // Leverage polynomial: Σ_s (Σ_{i+j=s} A_ij) u^s.
+  const lev: [number, number, number, number, number, number, number, number, number, number, number] = [0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0];
+  const k = rf.order + 1;
+  if (rf.inverse) for (let i = 0; i < k; i++) for (let j = 0; j < k; j++) lev[i + j]! += rf.inverse[i * k + j]!;
+  const [l0, l1, l2, l3, l4, l5, l6, l7, l8, l9, l10] = lev;
+  const leveraged = kind === 'hc2' || kind === 'hc3' ? 1 : 0;
+  const cube = kind === 'hc3';
+  const useNN = nn !== null;
+  const y0 = (useNN ? nn[0] : columns[0]) ?? t;
+  const y1 = (useNN ? nn[1] : columns[1]) ?? t;
+  const two = cols === 2;
+  let m00 = 0;
+  let m01 = 0;
+  let m11 = 0;
+  let count = 0;
+  let bad = 0;
+  for (let i = lo; i < hi; i++) {
+    const ti = t[i]!;
+    const u1 = ti * ih1;
+    const u2 = ti * ih2;
+    const w1 = localWeight(p0, p1, p2, u1);
+    const w2 = has2 * localWeight(q0, q1, q2, u2);
+    count += +(w1 + w2 > 0);
+    const omega =
+      w1 * (a0 + u1 * (a1 + u1 * (a2 + u1 * (a3 + u1 * (a4 + u1 * a5))))) + w2 * (b0 + u2 * (b1 + u2 * (b2 + u2 * (b3 + u2 * (b4 + u2 * b5)))));
+    const ur = ti * ihr;
+    let e0 = y0[i]!;
+    let e1 = two ? y1[i]! : 0;
+    if (!useNN) {
+      e0 -= c0 + ur * (c1 + ur * (c2 + ur * (c3 + ur * (c4 + ur * c5))));
+      e1 -= d0 + ur * (d1 + ur * (d2 + ur * (d3 + ur * (d4 + ur * d5))));
+    }
+    let o2 = omega * omega;
+    if (leveraged) {
+      const wr = localWeight(g0, g1, g2, ur);
+      const h =
+        wr * (l0 + ur * (l1 + ur * (l2 + ur * (l3 + ur * (l4 + ur * (l5 + ur * (l6 + ur * (l7 + ur * (l8 + ur * (l9 + ur * l10))))))))));
+      const room = 1 - h;
+      bad += +(room <= 1e-10);
+      o2 = cube ? o2 / (room * room) : o2 / room;
+    }
+    m00 += o2 * e0 * e0;
+    m01 += o2 * e0 * e1;
+    m11 += o2 * e1 * e1;
+  }
+  mat[0]! += m00;
+  if (two) {
+    mat[1]! += m01;
+    mat[2]! += m01;
+    mat[3]! += m11;
+  }
+  return { count, badLeverage: bad > 0 };
+}
+
 /** hᵢᵢ = K(u)·rᵀA r of a fit at scaled position u (0 outside its window). */
 function leverage(fit: SideFit, u: number): number {
   const w = kernelWeight(fit.kernelCode, u);
@@ -182,4 +304,16 @@ function leverage(fit: SideFit, u: number): number {
     pi *= u;
   }
   return w * total;
+}
+
+/**
+ * K(u) from `kernelCoefficients`, the same formula as `weightOf` in kernels.ts, kept in this module
+ * on purpose: V8 stops inlining an imported function into loops this large when the code runs under
+ * tsx (measured: three to four times slower), and an un-inlined call per row dominates the pass.
+ */
+function localWeight(c0: number, c1: number, c2: number, u: number): number {
+  const a = Math.abs(u);
+  const v1 = 1 - a;
+  const v2 = 1 - a * a;
+  return c0 * (v1 + Math.abs(v1)) + c1 * (v2 + Math.abs(v2)) + c2 * +(a <= 1);
 }
