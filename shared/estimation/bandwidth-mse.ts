@@ -1,3 +1,4 @@
+import { sumOfSquares } from './array-passes';
 import { EstimationError } from './errors';
 import { formatBandwidth, requireUsableFits } from './fit-checks';
 import { fitSides, type SideFit } from './local-polynomial';
@@ -138,9 +139,7 @@ function globalDerivatives(data: OrientedData, fits: readonly [SideFit, SideFit]
   const squares = [0, 0];
   for (const s of [0, 1] as const) {
     const [lo, hi] = s === 0 ? [0, data.split] : [data.split, data.n];
-    let sum = 0;
-    for (let i = lo; i < hi; i++) sum += y[i]! * y[i]!;
-    squares[s] = sum;
+    squares[s] = sumOfSquares(y, lo, hi);
   }
   const fr = factorial(r);
   const k = r + 1;

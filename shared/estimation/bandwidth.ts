@@ -1,3 +1,4 @@
+import { isConstant, standardDeviation, subtractScaled } from './array-passes';
 import { ikBandwidth } from './bandwidth-ik';
 import { mseBandwidths, PLUG_IN_STAGES } from './bandwidth-mse';
 import { EstimationError } from './errors';
@@ -39,12 +40,7 @@ export function coverageShrink(n: number, order: number): number {
  */
 export function pilotBandwidth(data: OrientedData, order: number, kernel: KernelName): number {
   const { t, n } = data;
-  let mean = 0;
-  for (let i = 0; i < n; i++) mean += t[i]!;
-  mean /= n;
-  let ss = 0;
-  for (let i = 0; i < n; i++) ss += (t[i]! - mean) ** 2;
-  const sd = Math.sqrt(ss / Math.max(1, n - 1));
+  const sd = standardDeviation(t);
   const cap = Math.max(data.sideRanges[0], data.sideRanges[1]);
   let h = Math.min(cap, 1.84 * sd * Math.pow(n, -0.2));
   const probe = withColumns(data, []);
@@ -82,14 +78,10 @@ export function chooseBandwidths(data: OrientedData, settings: BandwidthSettings
     }
     ratio = ittJump / firstStage;
     const [y, d] = data.columns as [Float64Array, Float64Array];
-    const pseudo = new Float64Array(data.n);
-    for (let i = 0; i < data.n; i++) pseudo[i] = y[i]! - ratio * d[i]!;
-    single = withColumns(data, [pseudo]);
+    single = withColumns(data, [subtractScaled(y, d, ratio, new Float64Array(data.n))]);
     if (residuals) {
       const [ey, ed] = residuals as [Float64Array, Float64Array];
-      const e = new Float64Array(data.n);
-      for (let i = 0; i < data.n; i++) e[i] = ey[i]! - ratio * ed[i]!;
-      residuals = [e];
+      residuals = [subtractScaled(ey, ed, ratio, new Float64Array(data.n))];
     }
   } else if (data.columns.length !== 1) {
     throw new RangeError('chooseBandwidths: expected one or two columns');
@@ -117,8 +109,3 @@ export function chooseBandwidths(data: OrientedData, settings: BandwidthSettings
   }
 }
 
-function isConstant(values: Float64Array): boolean {
-  const first = values[0];
-  for (let i = 1; i < values.length; i++) if (values[i] !== first) return false;
-  return true;
-}

@@ -3,11 +3,10 @@ import { biasCorrectedLimit, conventionalLimit } from './bias-correction';
 import { EstimationError } from './errors';
 import { firstStageF, weakFirstStageFlags } from './first-stage';
 import { formatBandwidth, requireUsableFits } from './fit-checks';
-import { kernelCode, kernelWeight } from './kernels';
-import { fitSides } from './local-polynomial';
+import { fitSides, type SideFit } from './local-polynomial';
 import { nearestNeighbourResiduals } from './nearest-neighbour';
 import { normalQuantile, twoSidedP } from './normal-distribution';
-import { prepareData, sideRange, type OrientedData } from './oriented-data';
+import { prepareData, type OrientedData } from './oriented-data';
 import { resolveOptions, validateData } from './resolve-options';
 import type {
   BandwidthResult,
@@ -64,7 +63,7 @@ export function estimateDiscontinuity(data: DiscontinuityData, options: Disconti
   requireUsableFits(pFits, formatBandwidth('h', Math.min(...h)));
   const qFits = fitSides(oriented, p + 1, resolved.kernel, b);
   requireUsableFits(qFits, formatBandwidth('b', Math.min(...b)));
-  if (fuzzy) requireTakeUpVariation(oriented, resolved.kernel, h);
+  if (fuzzy) requireTakeUpVariation(pFits);
 
   const conventional = [conventionalLimit(pFits[0]), conventionalLimit(pFits[1])] as const;
   const corrected = [biasCorrectedLimit(pFits[0], qFits[0]), biasCorrectedLimit(pFits[1], qFits[1])] as const;
@@ -186,22 +185,19 @@ function resolveBandwidths(oriented: OrientedData, resolved: ResolvedOptions, ne
   };
 }
 
-/** Throws `no_take_up_variation` when take-up is one value for everyone with weight inside h. */
-function requireTakeUpVariation(data: OrientedData, kernel: ResolvedOptions['kernel'], h: readonly [number, number]): void {
-  const { t } = data;
-  const d = data.columns[1]!;
-  const code = kernelCode(kernel);
-  let low = 0;
-  let high = 0;
-  for (const s of [0, 1] as const) {
-    const [lo, hi] = sideRange(data, s, h[s]);
-    for (let i = lo; i < hi; i++) {
-      const inside = +(kernelWeight(code, t[i]! / h[s]) > 0);
-      low += inside * (1 - d[i]!);
-      high += inside * d[i]!;
-    }
+/**
+ * Throws `no_take_up_variation` when take-up is one value for everyone with weight inside h: for a
+ * 0/1 column, Σwd = 0 (all 0) or Σw(1 − d) = 0 (all 1), read from the fits' sums (relative 1e-12
+ * for rounding).
+ */
+function requireTakeUpVariation(fits: readonly [SideFit, SideFit]): void {
+  let weight = 0;
+  let ones = 0;
+  for (const f of fits) {
+    weight += f.gram[0]!;
+    ones += f.weightedTotals[1]!;
   }
-  if (low > 0 && high > 0) return;
+  if (ones > 1e-12 * weight && weight - ones > 1e-12 * weight) return;
   throw new EstimationError('no_take_up_variation', 'Everyone near the cutoff has the same take-up, so there is no first stage to estimate.');
 }
 

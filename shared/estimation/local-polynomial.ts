@@ -27,6 +27,8 @@ export interface SideFit {
   coefficients: Float64Array[];
   /** ϑ = Σ wᵢ rᵢ uᵢ^(p+1): with the inverse gives the leading bias of each coefficient. */
   biasMoments: Float64Array;
+  /** Per column, Σ wᵢyᵢ (with gram[0] = Σ wᵢ, e.g. to see whether a 0/1 column varies). */
+  weightedTotals: Float64Array;
 }
 
 /**
@@ -79,7 +81,9 @@ export function fitSides(data: OrientedData, order: number, kernel: KernelName, 
       }
       coefficients.push(coef);
     }
-    return { side, order, kernel, kernelCode: code, h: h[side], used: used[side]!, gram, inverse, coefficients, biasMoments };
+    const weightedTotals = new Float64Array(cols);
+    for (let c = 0; c < cols; c++) weightedTotals[c] = cross[(side * cols + c) * k]!;
+    return { side, order, kernel, kernelCode: code, h: h[side], used: used[side]!, gram, inverse, coefficients, biasMoments, weightedTotals };
   };
   return [build(INELIGIBLE), build(ELIGIBLE)];
 }

@@ -62,9 +62,9 @@ export interface RawColumns {
  * counts each side in one pass; then lays the data out: `window` given ⇒ a compact copy of the
  * rows with |t| ≤ window; otherwise `sorted` or `bucketed` (see `OrientedData`).
  *
- * Every pass is branch-free per row (x − x is 0 only for finite x, d·(1 − d) only for d ∈ {0, 1};
- * rows outside the window go to a spare slot): with rows in random order a data-dependent branch
- * mispredicts and costs more than the arithmetic. A failed check reruns a slow pass for the message.
+ * The checking pass is branch-free per row (x − x is 0 only for finite x, d·(1 − d) only for
+ * d ∈ {0, 1}): with rows in random order a data-dependent branch mispredicts and costs more than
+ * the arithmetic. A failed check reruns a slow pass for the message.
  * @throws RangeError naming `fn` and the first bad entry.
  */
 export function prepareData(
@@ -83,35 +83,21 @@ export function prepareData(
   const shift = above ? -cutoff : cutoff;
   const limit = window ?? Infinity;
   const keep = window === null;
-  const t = keep ? new Float64Array(n) : null;
-  const y = columns[0];
-  const d = columns[1];
+  // Hot loops live in small functions of numbers and typed arrays only, each with one
+  // configuration: V8 then optimises each whole and never deoptimises on the next call.
+  const counts = new Float64Array(4);
+  const y = columns[0] ?? score;
+  const d = columns[1] ?? score;
   const dBinary = takeUpColumn === 1 ? 1 : 0;
-  let bad = 0;
-  let n1 = 0;
-  let in0 = 0;
-  let in1 = 0;
-  for (let i = 0; i < n; i++) {
-    const x = score[i]!;
-    const v = sign * x + shift + 0; // "+ 0" turns −0 into +0: a score at the cutoff is eligible
-    if (t) t[i] = v;
-    const e = +(v >= 0);
-    const inside = +(Math.abs(v) <= limit);
-    n1 += e;
-    in1 += inside * e;
-    in0 += inside * (1 - e);
-    bad += x - x;
-    if (y) bad += y[i]! - y[i]!;
-    if (d) {
-      const di = d[i]!;
-      bad += dBinary * Math.abs(di * (1 - di)) + (1 - dBinary) * (di - di);
-    }
-  }
-  for (let c = 2; c < columns.length; c++) {
-    const column = columns[c]!;
-    for (let i = 0; i < n; i++) bad += column[i]! - column[i]!;
-  }
+  const t = keep ? new Float64Array(n) : null;
+  if (t) scanRowsWritingT(score, y, d, columns.length, dBinary, sign, shift, t, counts);
+  else scanRows(score, y, d, columns.length, dBinary, sign, shift, limit, counts);
+  let bad = counts[0]!;
+  for (let c = 2; c < columns.length; c++) bad += finiteCheck(columns[c]!);
   if (bad !== 0) throw firstBadValue(fn, score, columns, takeUpColumn);
+  const n1 = counts[1]!;
+  const in0 = counts[2]!;
+  const in1 = counts[3]!;
   const sideCounts: [number, number] = [n - n1, n1];
   if (t) {
     if (layout === 'bucketed') return bucketed(t, columns, cluster, n1, sideCounts);
@@ -135,28 +121,25 @@ export function prepareData(
       sideRanges,
     };
   }
-  // Compact copy: row i goes to the next slot of its side, or to the spare slot `size` when outside.
+  // Compact copy of the rows inside the window, ineligible rows first.
   const size = in0 + in1;
-  const ct = new Float64Array(size + 1);
-  const cols = columns.map(() => new Float64Array(size + 1));
-  const labels = cluster ? new Int32Array(size + 1) : null;
-  let j0 = 0;
-  let j1 = in0;
-  for (let i = 0; i < n; i++) {
-    const v = sign * score[i]! + shift + 0;
-    const e = +(v >= 0);
-    const inside = +(Math.abs(v) <= limit);
-    const j = size + inside * (j0 + e * (j1 - j0) - size);
-    ct[j] = v;
-    for (let c = 0; c < cols.length; c++) cols[c]![j] = columns[c]![i]!;
-    if (labels && cluster) labels[j] = cluster[i]!;
-    j0 += inside * (1 - e);
-    j1 += inside * e;
+  const ct = new Float64Array(size);
+  let cols: Float64Array[];
+  let dense: { codes: Int32Array; count: number } | null = null;
+  if (columns.length <= 2 && !cluster) {
+    const cy = new Float64Array(columns.length > 0 ? size : 0);
+    const cd = new Float64Array(columns.length > 1 ? size : 0);
+    compactRows(score, y, d, columns.length, sign, shift, limit, in0, ct, cy, cd);
+    cols = [cy, cd].slice(0, columns.length);
+  } else {
+    const slot = new Int32Array(n);
+    compactSlots(score, sign, shift, limit, in0, ct, slot);
+    cols = columns.map((col) => scatterInto(col, slot, size));
+    dense = cluster ? densifyCodes(scatterIntInto(cluster, slot, size)) : null;
   }
-  const dense = labels ? densifyCodes(labels.subarray(0, size)) : null;
   return {
-    t: ct.subarray(0, size),
-    columns: cols.map((col) => col.subarray(0, size)),
+    t: ct,
+    columns: cols,
     cluster: dense?.codes ?? null,
     clusterCount: dense?.count ?? 0,
     n: size,
@@ -167,6 +150,158 @@ export function prepareData(
     sideCounts,
     sideRanges: [limit, limit],
   };
+}
+
+/**
+ * The first pass of the compact layout: orients each score, counts the eligible side and the rows
+ * inside the window per side, and sums check values that are 0 only for valid data (x − x for
+ * finite x, |d·(1 − d)| for d ∈ {0, 1}). out = [bad, n eligible, inside ineligible, inside eligible].
+ */
+function scanRows(
+  score: Float64Array,
+  y: Float64Array,
+  d: Float64Array,
+  columnCount: number,
+  dBinary: number,
+  sign: number,
+  shift: number,
+  limit: number,
+  out: Float64Array,
+): void {
+  const n = score.length;
+  const hasY = columnCount > 0 ? 1 : 0;
+  const hasD = columnCount > 1 ? 1 : 0;
+  let bad = 0;
+  let n1 = 0;
+  let inside = 0;
+  let in1 = 0;
+  for (let i = 0; i < n; i++) {
+    const x = score[i]!;
+    const v = sign * x + shift + 0; // "+ 0" turns −0 into +0: a score at the cutoff is eligible
+    const e = +(v >= 0);
+    const k = +(Math.abs(v) <= limit);
+    n1 += e;
+    inside += k;
+    in1 += k * e;
+    const yi = y[i]!;
+    const di = d[i]!;
+    bad += x - x + hasY * (yi - yi) + hasD * (dBinary * Math.abs(di * (1 - di)) + (1 - dBinary) * (di - di));
+  }
+  out[0] = bad;
+  out[1] = n1;
+  out[2] = inside - in1;
+  out[3] = in1;
+}
+
+/** The same checks and count for the layouts that keep every row, writing t as it goes. */
+function scanRowsWritingT(
+  score: Float64Array,
+  y: Float64Array,
+  d: Float64Array,
+  columnCount: number,
+  dBinary: number,
+  sign: number,
+  shift: number,
+  t: Float64Array,
+  out: Float64Array,
+): void {
+  const n = score.length;
+  const hasY = columnCount > 0 ? 1 : 0;
+  const hasD = columnCount > 1 ? 1 : 0;
+  let bad = 0;
+  let n1 = 0;
+  for (let i = 0; i < n; i++) {
+    const x = score[i]!;
+    const v = sign * x + shift + 0;
+    t[i] = v;
+    n1 += +(v >= 0);
+    const yi = y[i]!;
+    const di = d[i]!;
+    bad += x - x + hasY * (yi - yi) + hasD * (dBinary * Math.abs(di * (1 - di)) + (1 - dBinary) * (di - di));
+  }
+  out[0] = bad;
+  out[1] = n1;
+  out[2] = n - n1;
+  out[3] = n1;
+}
+
+/** Σ (x − x): 0 when every value is finite. */
+function finiteCheck(values: Float64Array): number {
+  let bad = 0;
+  for (let i = 0; i < values.length; i++) bad += values[i]! - values[i]!;
+  return bad;
+}
+
+/**
+ * Second pass of the compact layout (up to two columns, no clusters): copies the rows inside the
+ * window, ineligible rows from 0 and eligible ones from `in0`. Skipping outside rows is a branch,
+ * but a predictable one (the window is usually a small or a large share); the side is arithmetic.
+ */
+function compactRows(
+  score: Float64Array,
+  y: Float64Array,
+  d: Float64Array,
+  columnCount: number,
+  sign: number,
+  shift: number,
+  limit: number,
+  in0: number,
+  ct: Float64Array,
+  cy: Float64Array,
+  cd: Float64Array,
+): void {
+  let j0 = 0;
+  let j1 = in0;
+  const hasY = columnCount > 0;
+  const hasD = columnCount > 1;
+  for (let i = 0; i < score.length; i++) {
+    const v = sign * score[i]! + shift + 0;
+    if (!(Math.abs(v) <= limit)) continue;
+    const e = +(v >= 0);
+    const j = j0 + e * (j1 - j0);
+    j0 += 1 - e;
+    j1 += e;
+    ct[j] = v;
+    if (hasY) cy[j] = y[i]!;
+    if (hasD) cd[j] = d[i]!;
+  }
+}
+
+/** The general second pass: slot[i] is row i's place, or −1 outside the window. */
+function compactSlots(score: Float64Array, sign: number, shift: number, limit: number, in0: number, ct: Float64Array, slot: Int32Array): void {
+  let j0 = 0;
+  let j1 = in0;
+  for (let i = 0; i < score.length; i++) {
+    const v = sign * score[i]! + shift + 0;
+    if (!(Math.abs(v) <= limit)) {
+      slot[i] = -1;
+      continue;
+    }
+    const e = +(v >= 0);
+    const j = j0 + e * (j1 - j0);
+    j0 += 1 - e;
+    j1 += e;
+    ct[j] = v;
+    slot[i] = j;
+  }
+}
+
+function scatterInto(values: Float64Array, slot: Int32Array, size: number): Float64Array {
+  const out = new Float64Array(size);
+  for (let i = 0; i < slot.length; i++) {
+    const j = slot[i]!;
+    if (j >= 0) out[j] = values[i]!;
+  }
+  return out;
+}
+
+function scatterIntInto(values: Int32Array, slot: Int32Array, size: number): Int32Array {
+  const out = new Int32Array(size);
+  for (let i = 0; i < slot.length; i++) {
+    const j = slot[i]!;
+    if (j >= 0) out[j] = values[i]!;
+  }
+  return out;
 }
 
 /** Same observations, other outcome columns (e.g. a pseudo-outcome for bandwidth selection). */
@@ -198,53 +333,28 @@ export function sideRange(data: OrientedData, side: SideIndex, h: number): [numb
  */
 function bucketed(t: Float64Array, columns: readonly Float64Array[], cluster: Int32Array | null, n1: number, sideCounts: [number, number]): OrientedData {
   const n = t.length;
-  let r0 = 0;
-  let r1 = 0;
-  for (let i = 0; i < n; i++) {
-    const v = t[i]!;
-    if (v > r1) r1 = v;
-    if (-v > r0) r0 = -v;
-  }
-  // Bin of row i: side·BUCKETS + min(BUCKETS − 1, ⌊|t|·BUCKETS/range⌋).
-  const scale0 = r0 > 0 ? BUCKETS / r0 : 0;
-  const scale1 = r1 > 0 ? BUCKETS / r1 : 0;
-  const top = BUCKETS - 1;
+  const extremes = new Float64Array(2);
+  sideExtremes(t, extremes);
+  const [r0, r1] = extremes as unknown as [number, number];
+  const bins = new Uint16Array(n);
+  const starts = new Int32Array(2 * BUCKETS + 1);
+  binRows(t, r0 > 0 ? BUCKETS / r0 : 0, r1 > 0 ? BUCKETS / r1 : 0, bins, starts);
+  for (let b = 1; b <= 2 * BUCKETS; b++) starts[b]! += starts[b - 1]!;
   const cursor = new Int32Array(2 * BUCKETS + 1);
-  for (let i = 0; i < n; i++) {
-    const v = t[i]!;
-    const e = +(v >= 0);
-    const b = e * BUCKETS + Math.min(top, (Math.abs(v) * (e * scale1 + (1 - e) * scale0)) | 0);
-    cursor[b + 1]!++;
-  }
-  for (let b = 1; b <= 2 * BUCKETS; b++) cursor[b]! += cursor[b - 1]!;
-  const starts = cursor.slice();
+  // t and the first two columns in one scatter pass; any others (and clusters) one pass each.
   const st = new Float64Array(n);
   const cols = columns.map(() => new Float64Array(n));
-  const y0 = columns[0];
-  const y1 = columns[1];
-  const c0 = cols[0];
-  const c1 = cols[1];
-  const labels = cluster ? new Int32Array(n) : null;
-  for (let i = 0; i < n; i++) {
-    const v = t[i]!;
-    const e = +(v >= 0);
-    const b = e * BUCKETS + Math.min(top, (Math.abs(v) * (e * scale1 + (1 - e) * scale0)) | 0);
-    const j = cursor[b]!++;
-    st[j] = v;
-    if (y0 && c0) c0[j] = y0[i]!;
-    if (y1 && c1) c1[j] = y1[i]!;
-    if (labels && cluster) labels[j] = cluster[i]!;
-  }
+  cursor.set(starts);
+  scatterThreeByBin(t, columns[0] ?? t, columns[1] ?? t, bins, cursor, st, cols[0] ?? st, cols[1] ?? st);
   for (let c = 2; c < columns.length; c++) {
-    const out = cols[c]!;
-    const col = columns[c]!;
     cursor.set(starts);
-    for (let i = 0; i < n; i++) {
-      const v = t[i]!;
-      const e = +(v >= 0);
-      const b = e * BUCKETS + Math.min(top, (Math.abs(v) * (e * scale1 + (1 - e) * scale0)) | 0);
-      out[cursor[b]!++] = col[i]!;
-    }
+    scatterByBin(columns[c]!, bins, cursor, cols[c]!);
+  }
+  let labels: Int32Array | null = null;
+  if (cluster) {
+    labels = new Int32Array(n);
+    cursor.set(starts);
+    scatterIntByBin(cluster, bins, cursor, labels);
   }
   const dense = labels ? densifyCodes(labels) : null;
   return {
@@ -260,6 +370,58 @@ function bucketed(t: Float64Array, columns: readonly Float64Array[], cluster: In
     sideCounts,
     sideRanges: [r0, r1],
   };
+}
+
+/** out = [largest −t over t < 0, largest t over t ≥ 0] (0 for an empty side). */
+function sideExtremes(t: Float64Array, out: Float64Array): void {
+  let r0 = 0;
+  let r1 = 0;
+  for (let i = 0; i < t.length; i++) {
+    const v = t[i]!;
+    if (v > r1) r1 = v;
+    if (-v > r0) r0 = -v;
+  }
+  out[0] = r0;
+  out[1] = r1;
+}
+
+/** bins[i] = side·BUCKETS + min(BUCKETS − 1, ⌊|t|·BUCKETS/range⌋); counts[b + 1] counts bin b. */
+function binRows(t: Float64Array, scale0: number, scale1: number, bins: Uint16Array, counts: Int32Array): void {
+  const top = BUCKETS - 1;
+  for (let i = 0; i < t.length; i++) {
+    const v = t[i]!;
+    const e = +(v >= 0);
+    const b = e * BUCKETS + Math.min(top, (Math.abs(v) * (e * scale1 + (1 - e) * scale0)) | 0);
+    bins[i] = b;
+    counts[b + 1]!++;
+  }
+}
+
+/** Scatters t and two columns by bin in one pass (when a column is absent its slot repeats t, harmlessly). */
+function scatterThreeByBin(
+  t: Float64Array,
+  y: Float64Array,
+  d: Float64Array,
+  bins: Uint16Array,
+  cursor: Int32Array,
+  st: Float64Array,
+  sy: Float64Array,
+  sd: Float64Array,
+): void {
+  for (let i = 0; i < t.length; i++) {
+    const j = cursor[bins[i]!]!++;
+    st[j] = t[i]!;
+    sy[j] = y[i]!;
+    sd[j] = d[i]!;
+  }
+}
+
+function scatterByBin(values: Float64Array, bins: Uint16Array, cursor: Int32Array, out: Float64Array): void {
+  for (let i = 0; i < values.length; i++) out[cursor[bins[i]!]!++] = values[i]!;
+}
+
+function scatterIntByBin(values: Int32Array, bins: Uint16Array, cursor: Int32Array, out: Int32Array): void {
+  for (let i = 0; i < values.length; i++) out[cursor[bins[i]!]!++] = values[i]!;
 }
 
 /** First index with t[i] ≥ value. */

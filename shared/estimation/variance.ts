@@ -194,10 +194,9 @@ function generalSide(
 }
 
 /** Coefficients padded with zeros to six, so Horner's rule unrolls. */
-type Six = [number, number, number, number, number, number];
-function pad6(values: Float64Array | null): Six {
-  const out: Six = [0, 0, 0, 0, 0, 0];
-  if (values) for (let j = 0; j < Math.min(6, values.length); j++) out[j] = values[j]!;
+function pad6(values: Float64Array | null): Float64Array {
+  const out = new Float64Array(6);
+  if (values) out.set(values.subarray(0, 6));
   return out;
 }
 
@@ -220,28 +219,168 @@ function unrolledSide(
   const cols = columns.length;
   const [first, second] = f.terms as [FunctionalTerm, FunctionalTerm | undefined];
   const rf = f.residualFit;
-  const [p0, p1, p2] = kernelCoefficients(first.fit.kernelCode);
-  const [q0, q1, q2] = kernelCoefficients(second ? second.fit.kernelCode : 0);
-  const [g0, g1, g2] = kernelCoefficients(rf.kernelCode);
-  const ih1 = 1 / first.fit.h;
-  const ih2 = second ? 1 / second.fit.h : 0;
-  const has2 = second ? 1 : 0;
-  const ihr = 1 / rf.h;
-  const [a0, a1, a2, a3, a4, a5] = pad6(first.row);
-  const [b0, b1, b2, b3, b4, b5] = pad6(second ? second.row : null);
-  const [c0, c1, c2, c3, c4, c5] = pad6(rf.coefficients[0] ?? null);
-  const [d0, d1, d2, d3, d4, d5] = pad6(rf.coefficients[1] ?? null);
-  // Leverage polynomial: Σ_s (Σ_{i+j=s} A_ij) u^s.
-  const lev: [number, number, number, number, number, number, number, number, number, number, number] = [0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0];
+  // Parameters of the loop, packed so the loop function takes numbers and typed arrays only.
+  const params = new Float64Array(PARAMS);
+  params.set(kernelCoefficients(first.fit.kernelCode), 0);
+  params.set(kernelCoefficients(second ? second.fit.kernelCode : 0), 3);
+  params.set(kernelCoefficients(rf.kernelCode), 6);
+  params[9] = 1 / first.fit.h;
+  params[10] = second ? 1 / second.fit.h : 0;
+  params[11] = second ? 1 : 0;
+  params[12] = 1 / rf.h;
+  params.set(pad6(first.row), 13);
+  params.set(pad6(second ? second.row : null), 19);
+  params.set(pad6(rf.coefficients[0] ?? null), 25);
+  params.set(pad6(rf.coefficients[1] ?? null), 31);
+  // Leverage polynomial: Σ_s (Σ_{i+j=s} A_ij) u^s, coefficients at 37…47.
   const k = rf.order + 1;
-  if (rf.inverse) for (let i = 0; i < k; i++) for (let j = 0; j < k; j++) lev[i + j]! += rf.inverse[i * k + j]!;
-  const [l0, l1, l2, l3, l4, l5, l6, l7, l8, l9, l10] = lev;
-  const leveraged = kind === 'hc2' || kind === 'hc3' ? 1 : 0;
-  const cube = kind === 'hc3';
-  const useNN = nn !== null;
-  const y0 = (useNN ? nn[0] : columns[0]) ?? t;
-  const y1 = (useNN ? nn[1] : columns[1]) ?? t;
-  const two = cols === 2;
+  if (rf.inverse) for (let i = 0; i < k; i++) for (let j = 0; j < k; j++) params[37 + i + j]! += rf.inverse[i * k + j]!;
+  params[48] = kind === 'hc2' || kind === 'hc3' ? 1 : 0;
+  params[49] = kind === 'hc3' ? 1 : 0;
+  params[50] = nn ? 1 : 0;
+  params[51] = cols === 2 ? 1 : 0;
+  const y0 = (nn ? nn[0] : columns[0]) ?? t;
+  const y1 = (nn ? nn[1] : columns[1]) ?? t;
+  const out = new Float64Array(5);
+  // Two loops rather than one with a branch on the kind: each then sees one configuration only,
+  // and V8's optimised code does not depend on which kind ran first.
+  if (params[48]) leveragedVarianceLoop(t, lo, hi, y0, y1, params, out);
+  else varianceLoop(t, lo, hi, y0, y1, params, out);
+  mat[0]! += out[0]!;
+  if (cols === 2) {
+    mat[1]! += out[1]!;
+    mat[2]! += out[1]!;
+    mat[3]! += out[2]!;
+  }
+  return { count: out[3]!, badLeverage: out[4]! > 0 };
+}
+
+const PARAMS = 52;
+
+/** The loop of `unrolledSide` for HC0, HC1 and nearest-neighbour: out = [Σω²e₀², Σω²e₀e₁, Σω²e₁², rows in window, 0]. */
+function varianceLoop(t: Float64Array, lo: number, hi: number, y0: Float64Array, y1: Float64Array, params: Float64Array, out: Float64Array): void {
+  const p0 = params[0]!;
+  const p1 = params[1]!;
+  const p2 = params[2]!;
+  const q0 = params[3]!;
+  const q1 = params[4]!;
+  const q2 = params[5]!;
+  const ih1 = params[9]!;
+  const ih2 = params[10]!;
+  const has2 = params[11]!;
+  const ihr = params[12]!;
+  const a0 = params[13]!;
+  const a1 = params[14]!;
+  const a2 = params[15]!;
+  const a3 = params[16]!;
+  const a4 = params[17]!;
+  const a5 = params[18]!;
+  const b0 = params[19]!;
+  const b1 = params[20]!;
+  const b2 = params[21]!;
+  const b3 = params[22]!;
+  const b4 = params[23]!;
+  const b5 = params[24]!;
+  const c0 = params[25]!;
+  const c1 = params[26]!;
+  const c2 = params[27]!;
+  const c3 = params[28]!;
+  const c4 = params[29]!;
+  const c5 = params[30]!;
+  const d0 = params[31]!;
+  const d1 = params[32]!;
+  const d2 = params[33]!;
+  const d3 = params[34]!;
+  const d4 = params[35]!;
+  const d5 = params[36]!;
+  const useNN = params[50]!;
+  const two = params[51]!;
+  const fitted = 1 - useNN;
+  let m00 = 0;
+  let m01 = 0;
+  let m11 = 0;
+  let count = 0;
+  for (let i = lo; i < hi; i++) {
+    const ti = t[i]!;
+    const u1 = ti * ih1;
+    const u2 = ti * ih2;
+    const w1 = localWeight(p0, p1, p2, u1);
+    const w2 = has2 * localWeight(q0, q1, q2, u2);
+    count += +(w1 + w2 > 0);
+    const omega =
+      w1 * (a0 + u1 * (a1 + u1 * (a2 + u1 * (a3 + u1 * (a4 + u1 * a5))))) + w2 * (b0 + u2 * (b1 + u2 * (b2 + u2 * (b3 + u2 * (b4 + u2 * b5)))));
+    const ur = ti * ihr;
+    const e0 = y0[i]! - fitted * (c0 + ur * (c1 + ur * (c2 + ur * (c3 + ur * (c4 + ur * c5)))));
+    const e1 = two * (y1[i]! - fitted * (d0 + ur * (d1 + ur * (d2 + ur * (d3 + ur * (d4 + ur * d5))))));
+    const o2 = omega * omega;
+    m00 += o2 * e0 * e0;
+    m01 += o2 * e0 * e1;
+    m11 += o2 * e1 * e1;
+  }
+  out[0] = m00;
+  out[1] = m01;
+  out[2] = m11;
+  out[3] = count;
+  out[4] = 0;
+}
+
+/**
+ * The loop of `unrolledSide` for HC2 (ω̂ = ε̂²/(1−h)) and HC3 (ε̂²/(1−h)²), the power chosen by
+ * arithmetic: out = [Σω²ω̂ products, rows in window, rows with leverage 1].
+ */
+function leveragedVarianceLoop(t: Float64Array, lo: number, hi: number, y0: Float64Array, y1: Float64Array, params: Float64Array, out: Float64Array): void {
+  const p0 = params[0]!;
+  const p1 = params[1]!;
+  const p2 = params[2]!;
+  const q0 = params[3]!;
+  const q1 = params[4]!;
+  const q2 = params[5]!;
+  const g0 = params[6]!;
+  const g1 = params[7]!;
+  const g2 = params[8]!;
+  const ih1 = params[9]!;
+  const ih2 = params[10]!;
+  const has2 = params[11]!;
+  const ihr = params[12]!;
+  const a0 = params[13]!;
+  const a1 = params[14]!;
+  const a2 = params[15]!;
+  const a3 = params[16]!;
+  const a4 = params[17]!;
+  const a5 = params[18]!;
+  const b0 = params[19]!;
+  const b1 = params[20]!;
+  const b2 = params[21]!;
+  const b3 = params[22]!;
+  const b4 = params[23]!;
+  const b5 = params[24]!;
+  const c0 = params[25]!;
+  const c1 = params[26]!;
+  const c2 = params[27]!;
+  const c3 = params[28]!;
+  const c4 = params[29]!;
+  const c5 = params[30]!;
+  const d0 = params[31]!;
+  const d1 = params[32]!;
+  const d2 = params[33]!;
+  const d3 = params[34]!;
+  const d4 = params[35]!;
+  const d5 = params[36]!;
+  const l0 = params[37]!;
+  const l1 = params[38]!;
+  const l2 = params[39]!;
+  const l3 = params[40]!;
+  const l4 = params[41]!;
+  const l5 = params[42]!;
+  const l6 = params[43]!;
+  const l7 = params[44]!;
+  const l8 = params[45]!;
+  const l9 = params[46]!;
+  const l10 = params[47]!;
+  const cube = params[49]!;
+  const useNN = params[50]!;
+  const two = params[51]!;
+  const fitted = 1 - useNN;
   let m00 = 0;
   let m01 = 0;
   let m11 = 0;
@@ -257,32 +396,23 @@ function unrolledSide(
     const omega =
       w1 * (a0 + u1 * (a1 + u1 * (a2 + u1 * (a3 + u1 * (a4 + u1 * a5))))) + w2 * (b0 + u2 * (b1 + u2 * (b2 + u2 * (b3 + u2 * (b4 + u2 * b5)))));
     const ur = ti * ihr;
-    let e0 = y0[i]!;
-    let e1 = two ? y1[i]! : 0;
-    if (!useNN) {
-      e0 -= c0 + ur * (c1 + ur * (c2 + ur * (c3 + ur * (c4 + ur * c5))));
-      e1 -= d0 + ur * (d1 + ur * (d2 + ur * (d3 + ur * (d4 + ur * d5))));
-    }
-    let o2 = omega * omega;
-    if (leveraged) {
-      const wr = localWeight(g0, g1, g2, ur);
-      const h =
-        wr * (l0 + ur * (l1 + ur * (l2 + ur * (l3 + ur * (l4 + ur * (l5 + ur * (l6 + ur * (l7 + ur * (l8 + ur * (l9 + ur * l10))))))))));
-      const room = 1 - h;
-      bad += +(room <= 1e-10);
-      o2 = cube ? o2 / (room * room) : o2 / room;
-    }
+    const e0 = y0[i]! - fitted * (c0 + ur * (c1 + ur * (c2 + ur * (c3 + ur * (c4 + ur * c5)))));
+    const e1 = two * (y1[i]! - fitted * (d0 + ur * (d1 + ur * (d2 + ur * (d3 + ur * (d4 + ur * d5))))));
+    const wr = localWeight(g0, g1, g2, ur);
+    const h =
+      wr * (l0 + ur * (l1 + ur * (l2 + ur * (l3 + ur * (l4 + ur * (l5 + ur * (l6 + ur * (l7 + ur * (l8 + ur * (l9 + ur * l10))))))))));
+    const room = 1 - h;
+    bad += +(room <= 1e-10);
+    const o2 = (omega * omega) / (room * (cube * room + 1 - cube));
     m00 += o2 * e0 * e0;
     m01 += o2 * e0 * e1;
     m11 += o2 * e1 * e1;
   }
-  mat[0]! += m00;
-  if (two) {
-    mat[1]! += m01;
-    mat[2]! += m01;
-    mat[3]! += m11;
-  }
-  return { count, badLeverage: bad > 0 };
+  out[0] = m00;
+  out[1] = m01;
+  out[2] = m11;
+  out[3] = count;
+  out[4] = bad;
 }
 
 /** hᵢᵢ = K(u)·rᵀA r of a fit at scaled position u (0 outside its window). */
