@@ -57,7 +57,7 @@ export function mseBandwidths(data: OrientedData, order: number, kernel: KernelN
   const q = p + 1;
   const n = data.n;
   const f1 = factorial(p + 1);
-  const pilotName = formatBandwidth('(pilot)', pilot);
+  const pilotName = formatBandwidth('pilot', pilot);
   const caps = data.sideRanges;
   const cap = Math.max(caps[0], caps[1]);
 
@@ -71,7 +71,7 @@ export function mseBandwidths(data: OrientedData, order: number, kernel: KernelN
     const stage = derivativeStage(data, r, kernel, variance, pilot, pilotName);
     const g = [0, 1].map((s) => stageBandwidth(stage, next, s as 0 | 1, r, n, caps[s as 0 | 1])) as [number, number];
     const fits = fitSides(data, r, kernel, g);
-    requireUsableFits(fits, formatBandwidth('(stage)', Math.min(...g)));
+    requireUsableFits(fits, formatBandwidth('derivative-stage', Math.min(...g)));
     next = localDerivatives(fits, r, stage, n);
   }
 

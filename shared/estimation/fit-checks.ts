@@ -34,7 +34,11 @@ export function fitsUsable(fits: readonly [SideFit, SideFit]): boolean {
   return fits.every((f) => f.inverse !== null && f.used >= minimumObservationsForFit(f.order));
 }
 
-/** Formats a bandwidth for messages: 4 significant digits, score units. */
+/**
+ * Names a bandwidth for messages, 4 significant digits in score units: `h` and `b` as such, any
+ * other label as "the <label> bandwidth", e.g. "the pilot bandwidth 3.35".
+ */
 export function formatBandwidth(name: string, value: number): string {
-  return `the bandwidth ${name} = ${Number(value.toPrecision(4))}`;
+  const v = Number(value.toPrecision(4));
+  return name === 'h' || name === 'b' ? `the bandwidth ${name} = ${v}` : `the ${name} bandwidth ${v}`;
 }
