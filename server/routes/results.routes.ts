@@ -7,6 +7,7 @@ import { idParam, parse } from '../http/validate';
 import { CaveatAcknowledgeSchema } from '@shared/schemas/caveat-acknowledgement';
 import { actorOf } from '../http/current-user';
 import { acknowledgeCaveat } from '../services/caveat-acknowledgements.service';
+import { cachedResultsJson } from '../services/results-cache';
 import { getCohortDetail, getCohortTrend, getResultsOverview } from '../services/results.service';
 
 const TrendQuerySchema = z.object({ outcome: VariableKeySchema });
@@ -18,7 +19,8 @@ export function resultRoutes(ctx: AppContext): Router {
     '/programs/:programId/results',
     allow({ kind: 'roles', roles: ['admin', 'analyst', 'manager', 'evaluator', 'director'], scope: 'program' }),
     async (req, res) => {
-      res.json(await getResultsOverview(ctx.dataSource, idParam(req.params.programId, 'Program id')));
+      const programId = idParam(req.params.programId, 'Program id');
+      res.type('json').send(await cachedResultsJson(ctx.dataSource, programId, 'overview', () => getResultsOverview(ctx.dataSource, programId)));
     },
   );
   router.get(
@@ -26,7 +28,8 @@ export function resultRoutes(ctx: AppContext): Router {
     allow({ kind: 'roles', roles: ['admin', 'analyst', 'manager', 'evaluator', 'director'], scope: 'program' }),
     async (req, res) => {
       const q = parse(TrendQuerySchema, req.query);
-      res.json(await getCohortTrend(ctx.dataSource, idParam(req.params.programId, 'Program id'), q.outcome));
+      const programId = idParam(req.params.programId, 'Program id');
+      res.type('json').send(await cachedResultsJson(ctx.dataSource, programId, `trend:${q.outcome}`, () => getCohortTrend(ctx.dataSource, programId, q.outcome)));
     },
   );
   router.get(
@@ -34,7 +37,8 @@ export function resultRoutes(ctx: AppContext): Router {
     allow({ kind: 'roles', roles: ['admin', 'analyst', 'manager', 'evaluator'], scope: 'program' }),
     async (req, res) => {
       const period = parse(PeriodSchema, req.params.period);
-      res.json(await getCohortDetail(ctx.dataSource, idParam(req.params.programId, 'Program id'), period));
+      const programId = idParam(req.params.programId, 'Program id');
+      res.type('json').send(await cachedResultsJson(ctx.dataSource, programId, `cohort:${period}`, () => getCohortDetail(ctx.dataSource, programId, period)));
     },
   );
   router.post('/programs/:programId/results/:resultId/acknowledgements', allow({ kind: 'roles', roles: ['manager'], scope: 'program' }), async (req, res) => {

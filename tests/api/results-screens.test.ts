@@ -1,5 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { installDemoScenario } from '@server/demo/install-demo';
+import { EstimateResult } from '@server/entities/estimate-result.entity';
+import { Program } from '@server/entities/program.entity';
 import type { CohortDetailDto, CohortTrendDto } from '@shared/api/results';
 import { DEMO_WEAK_TAKE_UP_PERIOD } from '@shared/demo/heating-credit';
 import { installDemoResults } from '../support/demo-results';
@@ -45,5 +47,21 @@ describe('results for the screens', () => {
     await manager.post(`/api/programs/${programId}/results/${outcome!.id}/acknowledgements`).send({ caveatCode, comment: 'Read with care.' }).expect(201);
     const after: CohortDetailDto = (await manager.get(url).expect(200)).body;
     expect(after.outcomes.find((o) => o.id === outcome!.id)!.acknowledgements).toMatchObject([{ caveatCode, comment: 'Read with care.', acknowledgedBy: manager.me.user.displayName }]);
+  });
+
+  it('serves cached answers only while nothing they depend on changed', async () => {
+    const director = await signIn(t, { role: 'director', programId });
+    const url = `/api/programs/${programId}/results`;
+    const first = (await director.get(url).expect(200)).body;
+    expect(first.stale).toBe(false);
+    expect((await director.get(url).expect(200)).body).toEqual(first);
+    // Another process (the recompute job) marks a result stale: the next answer says so.
+    await db.dataSource.getRepository(EstimateResult).update({ programId, scopeKey: 'cohort:2026-10', outcomeKey: 'shutoff_6m' }, { stale: true, staleReason: 'A new extract was accepted for 2026-10.' });
+    const second = (await director.get(url).expect(200)).body;
+    expect(second.stale).toBe(true);
+    expect(second.outcomes[0].latest.staleReason).toBe('A new extract was accepted for 2026-10.');
+    // A renamed program shows under its new name.
+    await db.dataSource.getRepository(Program).update({ id: programId }, { name: 'Winter Heating Credit (renamed)' });
+    expect((await director.get(url).expect(200)).body.programName).toBe('Winter Heating Credit (renamed)');
   });
 });
