@@ -89,6 +89,7 @@ export function prepareData(
   const y = columns[0] ?? score;
   const d = columns[1] ?? score;
   const dBinary = takeUpColumn === 1 ? 1 : 0;
+  if (!keep && columns.length <= 2 && !cluster) return compactInOnePass(fn, raw, sign, shift, limit, dBinary);
   const t = keep ? new Float64Array(n) : null;
   if (t) scanRowsWritingT(score, y, d, columns.length, dBinary, sign, shift, t, counts);
   else scanRows(score, y, d, columns.length, dBinary, sign, shift, limit, counts);
@@ -223,6 +224,94 @@ function scanRowsWritingT(
   out[1] = n1;
   out[2] = n - n1;
   out[3] = n1;
+}
+
+/**
+ * The compact layout in one pass (up to two columns, no clusters): checks every row as `scanRows`
+ * does and copies the rows inside the window, ineligible ones from the front of full-length
+ * buffers and eligible ones from the back, then moves the eligible block next to the other. The
+ * buffers' untouched pages are never written (the allocator hands out zero pages lazily), so the
+ * only cost of their length is address space.
+ */
+function compactInOnePass(fn: string, raw: RawColumns, sign: number, shift: number, limit: number, dBinary: number): OrientedData {
+  const { score, columns } = raw;
+  const n = score.length;
+  const cols = columns.length;
+  const ct = new Float64Array(n);
+  const cy = new Float64Array(cols > 0 ? n : 0);
+  const cd = new Float64Array(cols > 1 ? n : 0);
+  const counts = new Float64Array(4);
+  scanAndCopy(score, columns[0] ?? score, columns[1] ?? score, cols, dBinary, sign, shift, limit, ct, cy, cd, counts);
+  if (counts[0] !== 0) throw firstBadValue(fn, score, columns, dBinary ? 1 : null);
+  const n1 = counts[1]!;
+  const in0 = counts[2]!;
+  const in1 = counts[3]!;
+  const size = in0 + in1;
+  const pack = (buffer: Float64Array) => {
+    buffer.copyWithin(in0, n - in1, n);
+    return buffer.subarray(0, size);
+  };
+  return {
+    t: pack(ct),
+    columns: [pack(cy), pack(cd)].slice(0, cols),
+    cluster: null,
+    clusterCount: 0,
+    n: size,
+    split: in0,
+    layout: 'compact',
+    complete: false,
+    bucketStarts: null,
+    sideCounts: [n - n1, n1],
+    sideRanges: [limit, limit],
+  };
+}
+
+/**
+ * The loop of `compactInOnePass`: out = [bad, n eligible, inside ineligible, inside eligible]; rows
+ * inside go to ct/cy/cd at the next front slot (ineligible) or the next back slot (eligible).
+ * Skipping outside rows is a predictable branch (the window is usually a small or a large share).
+ */
+function scanAndCopy(
+  score: Float64Array,
+  y: Float64Array,
+  d: Float64Array,
+  columnCount: number,
+  dBinary: number,
+  sign: number,
+  shift: number,
+  limit: number,
+  ct: Float64Array,
+  cy: Float64Array,
+  cd: Float64Array,
+  out: Float64Array,
+): void {
+  const n = score.length;
+  const hasY = columnCount > 0 ? 1 : 0;
+  const hasD = columnCount > 1 ? 1 : 0;
+  let bad = 0;
+  let n1 = 0;
+  let front = 0;
+  let back = n - 1;
+  for (let i = 0; i < n; i++) {
+    const x = score[i]!;
+    const v = sign * x + shift + 0; // "+ 0" turns −0 into +0: a score at the cutoff is eligible
+    const e = +(v >= 0);
+    n1 += e;
+    const yi = y[i]!;
+    const di = d[i]!;
+    bad += x - x + hasY * (yi - yi) + hasD * (dBinary * Math.abs(di * (1 - di)) + (1 - dBinary) * (di - di));
+    if (!(Math.abs(v) <= limit)) continue;
+    const j = front + e * (back - front);
+    front += 1 - e;
+    back -= e;
+    ct[j] = v;
+    if (hasY) cy[j] = yi;
+    if (hasD) cd[j] = di;
+  }
+  out[0] = bad;
+  out[1] = n1;
+  out[2] = front;
+  out[3] = n - 1 - back;
 }
 
 /** Σ (x − x): 0 when every value is finite. */

@@ -15,14 +15,14 @@ import { runRScript, writeCsv } from '@tests/support/r-script';
  */
 const ROWS = 1_000_000;
 const H = 5; // score points: about 10% of the rows inside the window
-const RUNS = 7;
+const RUNS = 9;
 
 function median(values: number[]): number {
   const s = [...values].sort((a, b) => a - b);
   return s[Math.floor(s.length / 2)]!;
 }
 
-function timeIt(run: () => unknown, runs = RUNS, warmUp = 2): number {
+function timeIt(run: () => unknown, runs = RUNS, warmUp = 3): number {
   for (let i = 0; i < warmUp; i++) run();
   const times: number[] = [];
   for (let i = 0; i < runs; i++) {
