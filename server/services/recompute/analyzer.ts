@@ -36,6 +36,8 @@ export interface AnalyzeInput {
   data: ScopeData;
   settings: DesignSettings;
   eligibleSide: EligibleSide;
+  /** Words for caveat messages: the program's people and covariate labels. */
+  labels?: { population: string; covariates: Record<string, string> };
 }
 
 /** The estimation engine, diagnostics and caveats behind one interface, with their versions. */

@@ -60,6 +60,9 @@ describe('engine analyzer', () => {
     // Take-up jumps from about 8% to about 70% at the cutoff by construction.
     expect(shutoff!.figures.firstStage!.conventional.estimate).toBeGreaterThan(0.45);
     expect(shutoff!.bins.some((b) => b.side === 'eligible') && shutoff!.bins.some((b) => b.side === 'ineligible')).toBe(true);
+    // Diagnostics and caveats come from runDiagnostics; the standing cautions are always there.
+    expect(Object.keys(shutoff!.diagnostics ?? {})).toEqual(expect.arrayContaining(['density', 'balance', 'placebo', 'sensitivity', 'donut', 'weakFirstStage', 'caveats']));
+    expect(shutoff!.caveats.some((c) => c.severity === 'info')).toBe(true);
   });
 
   it('gives a not-estimable result, not an error, when a side is empty', () => {

@@ -1,4 +1,5 @@
 import type { CaveatDto, EstimateDto, InferenceDto, PoolingDto } from '@shared/api/results';
+import { DIAGNOSTICS_VERSION, runDiagnostics, type NamedColumn } from '@shared/diagnostics';
 import { ENGINE_VERSION, estimateDiscontinuity, isEstimationError, type DiscontinuityEstimate, type DiscontinuityOptions } from '@shared/estimation';
 import type { DesignSettings } from '@shared/schemas/design';
 import type { StoredFigures } from '../../entities/estimate-result.entity';
@@ -10,20 +11,22 @@ export const POOLING_STATEMENT =
   'Pooled over several months: each month’s scores are measured from that month’s own cutoff, and the pooled estimate is a weighted average of the effects at the cutoffs in force (Cattaneo, Keele, Titiunik & Vazquez-Bare 2016), weighted by how many applicants score near each cutoff.';
 
 /**
- * The analyzer that uses the estimation engine (`@shared/estimation`): per outcome, the fuzzy
- * estimate on the scope's applicants (scores centred on their own cohort's cutoff, so the cutoff is
- * 0 for cohorts and windows alike), with the design's kernel, order, bandwidth rule, variance,
- * clusters, level and donut. Data that admit no estimate give a `not-estimable` result, not a failure.
+ * The analyzer that uses the estimation engine (`@shared/estimation`) and the diagnostics
+ * (`@shared/diagnostics`): per outcome, the fuzzy estimate on the scope's applicants (scores
+ * centred on their own cohort's cutoff, so the cutoff is 0 for cohorts and windows alike), with the
+ * design's kernel, order, bandwidth rule, variance, clusters, level and donut; then every
+ * diagnostic and the caveats they imply (`runDiagnostics`), with the design's balance covariates.
+ * Data that admit no estimate give a `not-estimable` result, not a failure.
  */
 export const engineAnalyzer: Analyzer = {
   engineVersion: ENGINE_VERSION,
-  diagnosticsVersion: null,
+  diagnosticsVersion: DIAGNOSTICS_VERSION,
   analyze(input: AnalyzeInput): AnalyzedOutcome[] {
     return input.settings.outcomes.map((key) => analyzeOutcome(input, key));
   },
 };
 
-function analyzeOutcome({ scope, data, settings, eligibleSide }: AnalyzeInput, outcomeKey: string): AnalyzedOutcome {
+function analyzeOutcome({ scope, data, settings, eligibleSide, labels }: AnalyzeInput, outcomeKey: string): AnalyzedOutcome {
   const outcome = data.outcomes[outcomeKey];
   const empty: StoredFigures = { level: settings.level, problem: null, firstStage: null, itt: null, effect: null, bandwidth: null, n: null, pooling: null };
   if (!outcome) {
@@ -40,12 +43,19 @@ function analyzeOutcome({ scope, data, settings, eligibleSide }: AnalyzeInput, o
     variance: settings.variance,
     level: settings.level,
   };
+  const engineData = { score: rows.centred, outcome: rows.outcome, takeUp: rows.takeUp, cluster: rows.cluster };
+  const report = runDiagnostics(
+    { ...engineData, covariates: rows.covariates.map((c) => ({ ...c, label: labels?.covariates[c.name] ?? c.name })) },
+    { ...options, population: labels?.population ?? 'applicants', outcomesTested: settings.outcomes.length },
+  );
+  const caveats: CaveatDto[] = report.caveats.map((c) => ({ code: c.code, severity: c.severity, message: c.message, values: c.values }));
+  const diagnostics = report as unknown as Record<string, unknown>;
   let estimate: DiscontinuityEstimate;
   try {
-    estimate = estimateDiscontinuity({ score: rows.centred, outcome: rows.outcome, takeUp: rows.takeUp, cluster: rows.cluster }, options);
+    estimate = estimateDiscontinuity(engineData, options);
   } catch (err) {
     if (!isEstimationError(err)) throw err;
-    return { ...notEstimable(outcomeKey, empty, err.code, err.message), bins };
+    return { ...notEstimable(outcomeKey, empty, err.code, err.message), bins, caveats, diagnostics };
   }
   const pooling = scope.scope.kind === 'window' ? poolingWeights(rows.centred, rows.cutoffOf, estimate.bandwidth.h, scope.scope.periods) : null;
   const figures: StoredFigures = {
@@ -77,7 +87,7 @@ function analyzeOutcome({ scope, data, settings, eligibleSide }: AnalyzeInput, o
     pooling,
     limits: estimate.limits,
   };
-  return { outcomeKey, status: 'ok', figures, caveats: interimCaveats(figures), diagnostics: null, bins };
+  return { outcomeKey, status: 'ok', figures, caveats, diagnostics, bins };
 }
 
 interface SelectedRows {
@@ -86,6 +96,8 @@ interface SelectedRows {
   outcome: Float64Array;
   takeUp: Float64Array | undefined;
   cluster: Int32Array | undefined;
+  /** Balance covariates with a value for every kept row (a covariate with gaps is left out of the balance check). */
+  covariates: NamedColumn[];
   droppedByDonut: number;
 }
 
@@ -117,7 +129,15 @@ function selectRows(data: ScopeData, outcome: Float64Array, settings: DesignSett
     cluster = new Int32Array(kept);
     for (let i = 0, j = 0; i < data.n; i++) if (keep[i]) cluster[j++] = data.cluster![i]!;
   }
+  const covariates: NamedColumn[] = [];
+  for (const name of settings.covariates) {
+    const col = data.covariates[name];
+    if (!col) continue;
+    const values = pick(col);
+    if (values.every((v) => Number.isFinite(v))) covariates.push({ name, values });
+  }
   return {
+    covariates,
     centred: pick(data.centred),
     cutoffOf: pick(data.cutoffOf),
     outcome: pick(outcome),
@@ -163,21 +183,4 @@ function jump(j: DiscontinuityEstimate['itt']): EstimateDto {
 
 function notEstimable(outcomeKey: string, empty: StoredFigures, code: string, message: string): AnalyzedOutcome {
   return { outcomeKey, status: 'not-estimable', figures: { ...empty, problem: { code, message } }, caveats: [], diagnostics: null, bins: [] };
-}
-
-/**
- * Until the diagnostics and caveat rules are wired in (`shared/caveats/`), the one caveat the
- * estimate itself supports: a weak take-up jump (F < 10, Staiger–Stock rule of thumb, METHODS §6).
- */
-function interimCaveats(figures: StoredFigures): CaveatDto[] {
-  const fs = figures.firstStage;
-  if (!fs || !fs.weak) return [];
-  return [
-    {
-      code: 'weak_first_stage',
-      severity: 'serious',
-      message: 'Qualifying changed take-up only a little this time, so the effect on participants is very uncertain and may be biased.',
-      values: { f: Number(fs.f.toFixed(2)) },
-    },
-  ];
 }

@@ -1,6 +1,7 @@
 import { In, type EntityManager } from 'typeorm';
 import type { ProvenanceDto } from '@shared/api/results';
 import { cutoffForPeriod } from '@shared/domain/cutoff-schedule';
+import { CovariateDefinition } from '../../entities/covariate-definition.entity';
 import { CutoffChange } from '../../entities/cutoff-change.entity';
 import { EstimateResult } from '../../entities/estimate-result.entity';
 import { EstimateResultDetail } from '../../entities/estimate-result-detail.entity';
@@ -143,12 +144,14 @@ async function compute(deps: RecomputeDeps, run: RecomputeRun, report: RunReport
   const loaded = needed.length > 0 ? await deps.loadCohorts(ds, program.id, needed) : null;
   report.loadMs = performance.now() - loadStart;
 
+  const covariateDefs = await ds.getRepository(CovariateDefinition).findBy({ programId: program.id });
+  const labels = { population: 'applicants', covariates: Object.fromEntries(covariateDefs.map((c) => [c.key, c.label.toLowerCase()])) };
   const computed: Array<{ plan: PlannedScope; outcomes: AnalyzedOutcome[] }> = [];
   for (const [i, plan] of todo.entries()) {
     await runs.update({ id: run.id }, { progressCurrent: plan.scope.key });
     const t0 = performance.now();
     const data = sliceScope(loaded!, plan.scope.periods.map((p) => p.period));
-    computed.push({ plan, outcomes: deps.analyzer.analyze({ scope: plan, data, settings: version.settings, eligibleSide: program.eligibleSide }) });
+    computed.push({ plan, outcomes: deps.analyzer.analyze({ scope: plan, data, settings: version.settings, eligibleSide: program.eligibleSide, labels }) });
     report.computeMs += performance.now() - t0;
     await runs.update({ id: run.id }, { progressDone: i + 1 });
     await deps.afterScope?.({ runId: run.id, done: i + 1, total: todo.length, scopeKey: plan.scope.key });
