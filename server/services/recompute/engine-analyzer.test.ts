@@ -61,7 +61,7 @@ describe('engine analyzer', () => {
     expect(shutoff!.figures.firstStage!.conventional.estimate).toBeGreaterThan(0.45);
     expect(shutoff!.bins.some((b) => b.side === 'eligible') && shutoff!.bins.some((b) => b.side === 'ineligible')).toBe(true);
     // Diagnostics and caveats come from runDiagnostics; the standing cautions are always there.
-    expect(Object.keys(shutoff!.diagnostics ?? {})).toEqual(expect.arrayContaining(['density', 'balance', 'placebo', 'sensitivity', 'donut', 'weakFirstStage', 'caveats']));
+    expect(Object.keys(shutoff!.diagnostics ?? {})).toEqual(expect.arrayContaining(['density', 'balance', 'placebo', 'sensitivity', 'donut', 'weakFirstStage', 'bins', 'power']));
     expect(shutoff!.caveats.some((c) => c.severity === 'info')).toBe(true);
   });
 

@@ -48,8 +48,10 @@ function analyzeOutcome({ scope, data, settings, eligibleSide, labels }: Analyze
     { ...engineData, covariates: rows.covariates.map((c) => ({ ...c, label: labels?.covariates[c.name] ?? c.name })) },
     { ...options, population: labels?.population ?? 'applicants', outcomesTested: settings.outcomes.length },
   );
-  const caveats: CaveatDto[] = report.caveats.map((c) => ({ code: c.code, severity: c.severity, message: c.message, values: c.values }));
-  const diagnostics = report as unknown as Record<string, unknown>;
+  const { caveats: reportCaveats, ...findings } = report;
+  const caveats: CaveatDto[] = reportCaveats.map((c) => ({ code: c.code, severity: c.severity, message: c.message, values: c.values }));
+  // Stored without the caveats, which are kept in their own column.
+  const diagnostics = findings as unknown as Record<string, unknown>;
   let estimate: DiscontinuityEstimate;
   try {
     estimate = estimateDiscontinuity(engineData, options);

@@ -44,7 +44,8 @@ export async function requestRecompute(manager: EntityManager, req: RecomputeReq
     })
     .orIgnore()
     .execute();
-  const joined = (inserted.raw as { affectedRows?: number }).affectedRows === 0;
+  // MariaDB answers INSERT … RETURNING through TypeORM: an ignored row returns no identifier.
+  const joined = !inserted.identifiers[0];
   const run = await repo.findOneByOrFail({ queuedProgramId: req.programId });
   if (!joined && req.actor.userId !== null) {
     await recordAudit(manager, { actor: req.actor, action: 'run.trigger', programId: req.programId, subjectType: 'run', subjectId: run.id, details: { trigger: req.trigger } });

@@ -197,7 +197,7 @@ function DesignDetail({ programId, design, program }: { programId: number; desig
           />
         </section>
       ) : null}
-      <VersionComparison programId={programId} designId={design.id} versions={design.versions} />
+      <VersionComparison key={design.currentVersion.version} programId={programId} designId={design.id} versions={design.versions} />
     </div>
   );
 }
