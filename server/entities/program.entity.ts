@@ -37,6 +37,14 @@ export class Program {
   @Column({ type: 'varchar', length: 64 })
   timeZone!: string;
 
+  /** Plural noun for the people served, in plain-language summaries. */
+  @Column({ type: 'varchar', length: 60, default: 'applicants' })
+  populationLabel!: string;
+
+  /** Taking part, as a verb phrase ("take the credit"). */
+  @Column({ type: 'varchar', length: 100, default: 'take part' })
+  takeUpPhrase!: string;
+
   @CreatedAtColumn()
   createdAt!: Date;
 

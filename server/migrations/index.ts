@@ -3,6 +3,7 @@ import { InitialSchema1796180845907 } from './1796180845907-InitialSchema';
 import { AddAuditTrail1796181110234 } from './1796181110234-AddAuditTrail';
 import { AddSignIn1796181746557 } from './1796181746557-AddSignIn';
 import { AddDesignsRunsResultsMail1796182794875 } from './1796182794875-AddDesignsRunsResultsMail';
+import { AddProgramWords1796187181992 } from './1796187181992-AddProgramWords';
 
 type MigrationClass = new () => MigrationInterface;
 
@@ -12,4 +13,5 @@ export const MIGRATIONS: MigrationClass[] = [
   AddAuditTrail1796181110234,
   AddSignIn1796181746557,
   AddDesignsRunsResultsMail1796182794875,
+  AddProgramWords1796187181992,
 ];

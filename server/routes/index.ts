@@ -6,6 +6,7 @@ import { designRoutes } from './designs.routes';
 import { healthRoutes } from './health.routes';
 import { mailRoutes } from './mail.routes';
 import { meRoutes } from './me.routes';
+import { programAdminRoutes } from './program-admin.routes';
 import { programRoutes } from './programs.routes';
 import { resultRoutes } from './results.routes';
 import { runRoutes } from './runs.routes';
@@ -22,6 +23,7 @@ export function apiRouter(ctx: AppContext): Router {
   router.use(healthRoutes(ctx));
   router.use(mailRoutes(ctx));
   router.use(meRoutes(ctx));
+  router.use(programAdminRoutes(ctx));
   router.use(programRoutes(ctx));
   router.use(resultRoutes(ctx));
   router.use(runRoutes(ctx));

@@ -72,5 +72,7 @@ async function toSummary(ds: DataSource, p: Program): Promise<ProgramSummaryDto>
     currentCutoff: latestPeriod ? cutoffForPeriod(schedule, latestPeriod) : (latestScheduled?.cutoff ?? null),
     cohortCount: Number(cohortStats?.count ?? 0),
     latestPeriod,
+    populationLabel: p.populationLabel,
+    takeUpPhrase: p.takeUpPhrase,
   };
 }

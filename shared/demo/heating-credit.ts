@@ -21,6 +21,8 @@ export const DEMO_PROGRAM: ProgramInput = {
   scoreMax: 100,
   eligibleSide: 'at-or-above',
   timeZone: 'America/Chicago',
+  populationLabel: 'households',
+  takeUpPhrase: 'take the credit',
 };
 
 export const DEMO_FIRST_PERIOD = '2024-11';

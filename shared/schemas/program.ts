@@ -59,6 +59,10 @@ export const ProgramInputSchema = z
     scoreMax: z.number().finite(),
     eligibleSide: EligibleSideSchema,
     timeZone: z.string().min(1).max(64),
+    /** Plural noun for the people the program serves, in summaries ("households"). */
+    populationLabel: z.string().trim().min(1, 'Name the people it serves, e.g. households.').max(60),
+    /** Taking part, as a verb phrase completing "more likely to …" ("take the credit"). */
+    takeUpPhrase: z.string().trim().min(1, 'Say what taking part is, e.g. take the credit.').max(100),
   })
   .refine((p) => p.scoreMin < p.scoreMax, { message: 'The lowest possible score must be below the highest.', path: ['scoreMax'] });
 export type ProgramInput = z.infer<typeof ProgramInputSchema>;

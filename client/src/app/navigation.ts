@@ -13,6 +13,7 @@ export interface NavItem {
 /** The main navigation, one item a line. Add an item with a `visible` rule that matches the route's `allow(...)`. */
 export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Programs', end: true, visible: () => true },
+  { to: '/admin/programs', label: 'Program settings', visible: isAgencyAdmin },
   { to: '/admin/users', label: 'People and roles', visible: isAgencyAdmin },
   { to: '/admin/audit', label: 'Audit trail', visible: isAgencyAdmin },
   { to: '/admin/mail', label: 'Sent mail', visible: isAgencyAdmin },
