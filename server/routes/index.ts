@@ -1,6 +1,7 @@
 import { Router } from 'express';
 import type { AppContext } from '../app-context';
 import { adminAuditRoutes } from './admin-audit.routes';
+import { adminScheduleRoutes } from './admin-schedules.routes';
 import { adminUserRoutes } from './admin-users.routes';
 import { designRoutes } from './designs.routes';
 import { healthRoutes } from './health.routes';
@@ -18,6 +19,7 @@ import { runRoutes } from './runs.routes';
 export function apiRouter(ctx: AppContext): Router {
   const router = Router();
   router.use(adminAuditRoutes(ctx));
+  router.use(adminScheduleRoutes(ctx));
   router.use(adminUserRoutes(ctx));
   router.use(designRoutes(ctx));
   router.use(healthRoutes(ctx));

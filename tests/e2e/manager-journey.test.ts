@@ -71,6 +71,12 @@ describe('manager reads the dashboard and acknowledges a caveat', () => {
     expect(await row.textContent()).toContain(formatJump(latest.effect!.estimate, trend.outcome));
     expect(await row.textContent()).toContain(formatInterval(latest.effect!.ciLow, latest.effect!.ciHigh, trend.outcome));
     await page.screenshot({ path: screenshotPath('trend-dashboard'), fullPage: true });
+    // Printed, the page keeps the figures, the summary and the caution, and drops the controls.
+    await page.emulateMedia({ media: 'print' });
+    expect(await page.getByRole('radio', { name: /Pooled months/ }).isVisible()).toBe(false);
+    expect(await page.getByRole('complementary', { name: 'How to read these results' }).isVisible()).toBe(true);
+    await page.screenshot({ path: screenshotPath('trend-dashboard-print'), fullPage: true });
+    await page.emulateMedia({ media: 'screen' });
 
     await page.locator('label', { hasText: 'Pooled months' }).click();
     await page.getByRole('table', { name: /pooled months/ }).waitFor();

@@ -15,6 +15,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Programs', end: true, visible: () => true },
   { to: '/admin/programs', label: 'Program settings', visible: isAgencyAdmin },
   { to: '/admin/users', label: 'People and roles', visible: isAgencyAdmin },
+  { to: '/admin/schedules', label: 'Schedules', visible: isAgencyAdmin },
   { to: '/admin/audit', label: 'Audit trail', visible: isAgencyAdmin },
   { to: '/admin/mail', label: 'Sent mail', visible: isAgencyAdmin },
   { to: '/me/summary', label: 'My summary', visible: (me) => holdsAnyRole(me, ['director']) },

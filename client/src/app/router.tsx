@@ -18,6 +18,7 @@ export const router = createBrowserRouter([
       { path: 'admin/programs', lazy: async () => ({ Component: (await import('./routes/admin/programs')).default }) },
       { path: 'admin/programs/new', lazy: async () => ({ Component: (await import('./routes/admin/program-new')).default }) },
       { path: 'admin/programs/:programId', lazy: async () => ({ Component: (await import('./routes/admin/program')).default }) },
+      { path: 'admin/schedules', lazy: async () => ({ Component: (await import('./routes/admin/schedules')).default }) },
       { path: 'admin/audit', lazy: async () => ({ Component: (await import('./routes/admin/audit')).default }) },
       { path: 'admin/users', lazy: async () => ({ Component: (await import('./routes/admin/users')).default }) },
       { path: 'admin/users/:userId', lazy: async () => ({ Component: (await import('./routes/admin/user')).default }) },
