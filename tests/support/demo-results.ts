@@ -12,18 +12,13 @@ import { sliceScope } from '@server/services/recompute/slice-scope';
 import type { LoadedCohorts } from '@server/services/recompute/recompute-deps';
 import type { ProvenanceDto } from '@shared/api/results';
 import { DEMO_COVARIATES, DEMO_OUTCOMES, demoPeriods, generateDemoCohort } from '@shared/demo/heating-credit';
-import { defaultDesignSettings, type DesignSettings } from '@shared/schemas/design';
-import { CAVEAT_RULES } from '@shared/caveats';
-import { DIAGNOSTICS_VERSION, runDiagnostics } from '@shared/diagnostics';
-import type { AnalyzedOutcome } from '@server/services/recompute/analyzer';
-import type { EligibleSide } from '@shared/schemas/program';
+import { defaultDesignSettings } from '@shared/schemas/design';
 
 /**
- * Results of the demo scenario computed by the app's own analyzer (the estimation engine) over the
- * demo's 24 generated cohorts, written as the recompute writes them. While the analyzer stores no
- * diagnostics, each month gets `runDiagnostics` (shared/diagnostics) on the same centred data and
- * its rule-table caveats. For screens, browser tests and the API benchmark, so they do not depend on
- * the extract path; the figures are the engine's and the diagnostics', nothing is made up here.
+ * Results of the demo scenario computed by the app's own analyzer (the estimation engine, the
+ * diagnostics and the caveat rules) over the demo's 24 generated cohorts, written as the recompute
+ * writes them. For screens, browser tests and the API benchmark, so they do not depend on the
+ * extract path; the figures are the analyzer's, nothing is made up here.
  * The extract ids in the provenance are positions (1…24), not rows of an extract table.
  */
 export async function installDemoResults(ds: DataSource, programId: number): Promise<{ designId: number; runId: number; periods: string[] }> {
@@ -62,6 +57,7 @@ export async function installDemoResults(ds: DataSource, programId: number): Pro
   );
 
   const { loaded, cohorts } = demoCohorts();
+  const labels = { population: program.populationLabel, covariates: Object.fromEntries(DEMO_COVARIATES.map((c) => [c.key, c.label.toLowerCase()])) };
   const planned = planScopes(cohorts, {
     designVersionId: version.id,
     settings: version.settings,
@@ -72,8 +68,7 @@ export async function installDemoResults(ds: DataSource, programId: number): Pro
   let written = 0;
   for (const plan of planned) {
     const data = sliceScope(loaded, plan.scope.periods.map((p) => p.period));
-    const analyzed = engineAnalyzer.analyze({ scope: plan, data, settings: version.settings, eligibleSide: program.eligibleSide });
-    const outcomes = plan.scope.kind === 'cohort' ? analyzed.map((r) => withDiagnostics(r, data, version.settings, program.eligibleSide)) : analyzed;
+    const outcomes = engineAnalyzer.analyze({ scope: plan, data, settings: version.settings, eligibleSide: program.eligibleSide, labels });
     const provenance: ProvenanceDto = {
       runId: run.id,
       computedAt: now.toISOString(),
@@ -81,7 +76,7 @@ export async function installDemoResults(ds: DataSource, programId: number): Pro
       designVersion: version.version,
       designVersionId: version.id,
       engineVersion: engineAnalyzer.engineVersion,
-      diagnosticsVersion: engineAnalyzer.diagnosticsVersion ?? (plan.scope.kind === 'cohort' ? DIAGNOSTICS_VERSION : null),
+      diagnosticsVersion: engineAnalyzer.diagnosticsVersion,
       appVersion: 'demo-results',
       extracts: plan.cohorts.map((c) => ({ period: c.period, extractId: c.extractId, sha256: c.sha256 })),
     };
@@ -117,26 +112,6 @@ export async function installDemoResults(ds: DataSource, programId: number): Pro
   await runRepo.update({ id: run.id }, { progressDone: planned.length, progressTotal: planned.length, resultsWritten: written });
   return { designId: design.id, runId: run.id, periods: cohorts.map((c) => c.period) };
 }
-
-/** The month's diagnostics and rule-table caveats, when the analyzer did not store any (scores centred: cutoff 0). */
-function withDiagnostics(r: AnalyzedOutcome, data: ScopeData, settings: DesignSettings, eligibleSide: EligibleSide): AnalyzedOutcome {
-  if (r.status !== 'ok' || r.diagnostics !== null) return r;
-  const report = runDiagnostics(
-    {
-      score: data.centred,
-      outcome: data.outcomes[r.outcomeKey]!,
-      takeUp: data.takeUp!,
-      covariates: DEMO_COVARIATES.map((c) => ({ name: c.key, label: c.label.toLowerCase(), values: data.covariates[c.key]! })),
-    },
-    { cutoff: 0, eligibleSide, kernel: settings.kernel, order: settings.order, variance: settings.variance, level: settings.level, population: 'households', outcomesTested: settings.outcomes.length, permutations: 200 },
-  );
-  const { caveats, ...findings } = report;
-  return { ...r, caveats: caveats.filter((c) => !isStanding(c.code)), diagnostics: findings as unknown as Record<string, unknown> };
-}
-
-/** The standing cautions are on every result screen already (the caution banner). */
-const STANDING = new Set(CAVEAT_RULES.filter((r) => r.standing).map((r) => r.code));
-const isStanding = (code: string): boolean => STANDING.has(code);
 
 /** The 24 demo cohorts end to end in one set of arrays, scores centred on each cohort's cutoff. */
 function demoCohorts(): { loaded: LoadedCohorts; cohorts: CohortInput[] } {

@@ -145,7 +145,7 @@ async function compute(deps: RecomputeDeps, run: RecomputeRun, report: RunReport
   report.loadMs = performance.now() - loadStart;
 
   const covariateDefs = await ds.getRepository(CovariateDefinition).findBy({ programId: program.id });
-  const labels = { population: 'applicants', covariates: Object.fromEntries(covariateDefs.map((c) => [c.key, c.label.toLowerCase()])) };
+  const labels = { population: program.populationLabel, covariates: Object.fromEntries(covariateDefs.map((c) => [c.key, c.label.toLowerCase()])) };
   const computed: Array<{ plan: PlannedScope; outcomes: AnalyzedOutcome[] }> = [];
   for (const [i, plan] of todo.entries()) {
     await runs.update({ id: run.id }, { progressCurrent: plan.scope.key });

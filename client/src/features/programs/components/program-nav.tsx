@@ -13,6 +13,8 @@ export function ProgramNav({ program }: { program: ProgramDetailDto }) {
   const me = useSignedInUser();
   const items = [
     { to: `/programs/${program.id}`, label: 'Trends', end: true, show: true },
+    { to: `/programs/${program.id}/designs`, label: 'Evaluation designs', end: false, show: holdsRoleForProgram(me, ['admin', 'analyst', 'manager', 'evaluator'], program.id) },
+    { to: `/programs/${program.id}/runs`, label: 'Recompute runs', end: false, show: holdsRoleForProgram(me, ['admin', 'analyst'], program.id) },
     { to: `/admin/programs/${program.id}`, label: 'Program settings', end: false, show: isAgencyAdmin(me) || holdsRoleForProgram(me, ['admin'], program.id) },
   ].filter((i) => i.show);
   return (
