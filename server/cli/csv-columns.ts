@@ -16,7 +16,10 @@ export interface ColumnRequest {
 }
 
 export interface CsvColumns {
+  /** Rows kept. */
   rows: number;
+  /** Rows left out because a requested cell was empty (`skipIncomplete` only). */
+  skipped: number;
   numbers: Map<string, Float64Array>;
   labels: Map<string, Int32Array>;
 }
@@ -24,9 +27,11 @@ export interface CsvColumns {
 /**
  * Streams a CSV file with a header row (csv-parse) and keeps only the requested columns, checking
  * every cell: numbers must be finite decimals, binary columns 0 or 1, labels non-empty.
+ * With `skipIncomplete`, a row with an empty requested cell is left out and counted instead (as
+ * Cutline leaves out applicants with a missing value in a column an estimate uses).
  * @throws InputError for a missing file or column, a short row or a bad cell (with its line number).
  */
-export async function readCsvColumns(file: string, requests: readonly ColumnRequest[]): Promise<CsvColumns> {
+export async function readCsvColumns(file: string, requests: readonly ColumnRequest[], options: { skipIncomplete?: boolean } = {}): Promise<CsvColumns> {
   const shown = path.basename(file);
   try {
     await fs.promises.access(file, fs.constants.R_OK);
@@ -39,6 +44,7 @@ export async function readCsvColumns(file: string, requests: readonly ColumnRequ
   const numbers = requests.map(() => [] as number[]);
   const labelCodes = requests.map(() => new Map<string, number>());
   let rows = 0;
+  let skipped = 0;
   try {
     for await (const item of parser as AsyncIterable<{ record: string[]; info: { lines: number } }>) {
       const { record, info } = item;
@@ -49,6 +55,10 @@ export async function readCsvColumns(file: string, requests: readonly ColumnRequ
           if (at < 0) throw new InputError(`Column "${r.name}" is not in ${shown}; its columns are ${record.map((c) => `"${c}"`).join(', ')}.`);
           return at;
         });
+        continue;
+      }
+      if (options.skipIncomplete && positions.some((at) => record[at] === undefined || record[at] === '')) {
+        skipped++;
         continue;
       }
       rows++;
@@ -78,7 +88,7 @@ export async function readCsvColumns(file: string, requests: readonly ColumnRequ
     throw new InputError(`${shown} is not a readable CSV file: ${err instanceof Error ? err.message : String(err)}.`);
   }
   if (!header) throw new InputError(`${shown} is empty; it needs a header row and data rows.`);
-  const out: CsvColumns = { rows, numbers: new Map(), labels: new Map() };
+  const out: CsvColumns = { rows, skipped, numbers: new Map(), labels: new Map() };
   requests.forEach((r, k) => {
     if (r.kind === 'label') out.labels.set(r.name, Int32Array.from(numbers[k]!));
     else out.numbers.set(r.name, Float64Array.from(numbers[k]!));

@@ -4,6 +4,7 @@ import { pathToFileURL } from 'node:url';
 import { readCsvColumns, type ColumnRequest } from './csv-columns';
 import { ESTIMATE_FLAGS } from './estimate';
 import { parseFlags, UsageError, usageText, type FlagSpec } from './flags';
+import { applyDonut, rowSelection } from './row-selection';
 import { runCommand } from './run-command';
 
 /**
@@ -70,7 +71,9 @@ export async function diagnoseCommand(argv: string[]): Promise<string> {
   if (columns.takeUp) requests.push({ name: columns.takeUp, kind: 'binary' });
   if (columns.cluster) requests.push({ name: columns.cluster, kind: 'label' });
   const file = text('input')!;
-  const csv = await readCsvColumns(file, requests);
+  const selection = rowSelection(flags);
+  const read = await readCsvColumns(file, requests, { skipIncomplete: selection.skipIncomplete });
+  const { csv, dropped } = applyDonut(read, columns.score, num('cutoff')!, selection.donutRadius);
   const covariates: NamedColumn[] = covariateNames.map((name) => ({ name, values: csv.numbers.get(name)! }));
   const rule = text('bandwidth-rule') as BandwidthRule | undefined;
   const options: DiagnosticsOptions = {
@@ -98,7 +101,7 @@ export async function diagnoseCommand(argv: string[]): Promise<string> {
     },
     options,
   );
-  return `${JSON.stringify({ input: { file, columns, rows: csv.rows }, ...report }, null, 2)}\n`;
+  return `${JSON.stringify({ input: { file, columns, rows: csv.rows, skippedIncomplete: csv.skipped, droppedByDonut: dropped }, ...report }, null, 2)}\n`;
 }
 
 if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) void runCommand(diagnoseCommand);

@@ -11,6 +11,7 @@ import {
 import { pathToFileURL } from 'node:url';
 import { readCsvColumns, type ColumnRequest } from './csv-columns';
 import { parseFlags, UsageError, usageText, type FlagSpec } from './flags';
+import { applyDonut, ROW_SELECTION_FLAGS, rowSelection } from './row-selection';
 import { runCommand } from './run-command';
 
 /**
@@ -35,6 +36,7 @@ export const ESTIMATE_FLAGS: readonly FlagSpec[] = [
   { name: 'variance', placeholder: 'V', description: 'variance estimator, default hc3 (hc1 with --cluster)', choices: VARIANCE_KINDS },
   { name: 'cluster', placeholder: 'COL', description: 'column of cluster labels (e.g. office) for cluster-robust variance' },
   { name: 'level', placeholder: 'L', description: 'confidence level, default 0.95', numeric: true },
+  ...ROW_SELECTION_FLAGS,
 ];
 
 const SUMMARY = 'Estimates the jump at a score cutoff (sharp, or fuzzy with --takeup) and prints one JSON object.';
@@ -67,7 +69,9 @@ export async function estimateCommand(argv: string[]): Promise<string> {
   if (columns.takeUp) requests.push({ name: columns.takeUp, kind: 'binary' });
   if (columns.cluster) requests.push({ name: columns.cluster, kind: 'label' });
   const file = text('input')!;
-  const csv = await readCsvColumns(file, requests);
+  const selection = rowSelection(flags);
+  const read = await readCsvColumns(file, requests, { skipIncomplete: selection.skipIncomplete });
+  const { csv, dropped } = applyDonut(read, columns.score, num('cutoff')!, selection.donutRadius);
   const data = {
     score: csv.numbers.get(columns.score)!,
     outcome: csv.numbers.get(columns.outcome)!,
@@ -86,7 +90,7 @@ export async function estimateCommand(argv: string[]): Promise<string> {
     level,
   };
   const result = estimateDiscontinuity(data, options);
-  return `${JSON.stringify({ input: { file, columns, rows: csv.rows }, ...result }, null, 2)}\n`;
+  return `${JSON.stringify({ input: { file, columns, rows: csv.rows, skippedIncomplete: csv.skipped, droppedByDonut: dropped }, ...result }, null, 2)}\n`;
 }
 
 if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) void runCommand(estimateCommand);

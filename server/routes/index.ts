@@ -3,6 +3,7 @@ import type { AppContext } from '../app-context';
 import { adminAuditRoutes } from './admin-audit.routes';
 import { adminScheduleRoutes } from './admin-schedules.routes';
 import { adminUserRoutes } from './admin-users.routes';
+import { annexRoutes } from './annex.routes';
 import { designRoutes } from './designs.routes';
 import { healthRoutes } from './health.routes';
 import { mailRoutes } from './mail.routes';
@@ -21,6 +22,7 @@ export function apiRouter(ctx: AppContext): Router {
   router.use(adminAuditRoutes(ctx));
   router.use(adminScheduleRoutes(ctx));
   router.use(adminUserRoutes(ctx));
+  router.use(annexRoutes(ctx));
   router.use(designRoutes(ctx));
   router.use(healthRoutes(ctx));
   router.use(mailRoutes(ctx));
