@@ -71,6 +71,26 @@ describe('estimate command', () => {
     await expect(call('--input', flat, ...common, '--takeup', 'took', '--bandwidth', '8')).rejects.toThrow(/same take-up/);
   });
 
+  it('skips incomplete rows and leaves out a donut only when asked, as if those rows were not in the file', async () => {
+    const full = handMadeCsv();
+    const common = ['--score', 'score', '--outcome', 'shutoff', '--takeup', 'took', '--cutoff', '60', '--eligible', 'at-or-above', '--bandwidth', '12', '--variance', 'hc1'];
+    const gap = write('gap.csv', full.replace(/^(h7,[^,]+),\d,/m, '$1,,'));
+    await expect(estimateCommand(['--input', gap, ...common])).rejects.toThrow(/Line 9 of gap.csv, column "shutoff" is empty/);
+    const without7 = write('without7.csv', full.replace(/^h7,.*\n/m, ''));
+    const skipped = JSON.parse(await estimateCommand(['--input', gap, ...common, '--missing', 'skip']));
+    const reference = JSON.parse(await estimateCommand(['--input', without7, ...common]));
+    expect(skipped.input).toMatchObject({ rows: 23, skippedIncomplete: 1, droppedByDonut: 0 });
+    // Identity: skipping a row is estimating on the file without it.
+    expect(skipped.effect).toEqual(reference.effect);
+
+    // Scores 59.9 and 60.8 (h11, h12) lie within 1 of the cutoff 60.
+    const donut = JSON.parse(await estimateCommand(['--input', write('donut.csv', full), ...common, '--donut', '1']));
+    const withoutCentre = write('without-centre.csv', full.replace(/^h1[12],.*\n/gm, ''));
+    expect(donut.input).toMatchObject({ rows: 22, droppedByDonut: 2 });
+    expect(donut.effect).toEqual(JSON.parse(await estimateCommand(['--input', withoutCentre, ...common])).effect);
+    await expect(estimateCommand(['--input', gap, ...common, '--donut', '-1'])).rejects.toThrow(/--donut must be zero or a positive number/);
+  });
+
   it('exits non-zero with the sentence on stderr and nothing on stdout', () => {
     const ok = write('ok4.csv', handMadeCsv());
     const tsx = path.join(process.cwd(), 'node_modules', '.bin', 'tsx');
