@@ -7,6 +7,7 @@ import type { Logger } from '../lib/logger';
 import { newMessageId, sendMail } from '../mail/mailer';
 import { renderSummary } from '../mail/render-summary';
 import { TREND_COHORTS, type ProgramSummary, type SummaryContent } from '../mail/summary-content';
+import { annexAttachments } from './annex/annex-attachments';
 import { recordAudit, SYSTEM_ACTOR } from './audit.service';
 import { getCohortTrend, getResultsOverview } from './results.service';
 import { directorPrograms } from './subscriptions.service';
@@ -48,15 +49,17 @@ export async function sendSummary(deps: SummaryDeps, sub: SummarySubscription, n
   const user = await ds.getRepository(User).findOneByOrFail({ id: sub.userId });
   const content = await buildSummaryContent(deps, sub);
   const mail = renderSummary(content);
+  const programIds = content.programs.map((p) => p.overview.programId);
+  // The director opted in to the technical annex of each program (the workbook evaluators download).
+  const annexes = sub.attachAnnex ? await annexAttachments(ds, programIds, user.displayName, now) : { attachments: [], programIds: [] };
   const messageId = newMessageId(deps.config.app.publicUrl);
   let error: string | null = null;
   try {
-    await sendMail(deps.config, messageId, { to: user.email, subject: mail.subject, html: mail.html, text: mail.text, images: mail.images });
+    await sendMail(deps.config, messageId, { to: user.email, subject: mail.subject, html: mail.html, text: mail.text, images: mail.images, attachments: annexes.attachments });
   } catch (err) {
     error = 'The mail server did not accept the message; it will be tried again at the next check.';
     deps.logger.warn({ subscriptionId: sub.id, code: (err as { code?: unknown }).code ?? null }, 'summary e-mail not sent');
   }
-  const programIds = content.programs.map((p) => p.overview.programId);
   return ds.transaction(async (tx) => {
     const row = await tx.getRepository(EmailMessage).save(
       tx.getRepository(EmailMessage).create({
@@ -75,7 +78,7 @@ export async function sendSummary(deps: SummaryDeps, sub: SummarySubscription, n
       }),
     );
     if (!error) await tx.getRepository(SummarySubscription).update({ id: sub.id }, { lastSentAt: now });
-    await recordAudit(tx, { actor: SYSTEM_ACTOR, action: 'email.send', subjectType: 'email', subjectId: row.id, details: { kind: 'director-summary', status: row.status, programs: programIds.length, userId: user.id } });
+    await recordAudit(tx, { actor: SYSTEM_ACTOR, action: 'email.send', subjectType: 'email', subjectId: row.id, details: { kind: 'director-summary', status: row.status, programs: programIds.length, userId: user.id, annexesAttached: annexes.programIds } });
     return row;
   });
 }
