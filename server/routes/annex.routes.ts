@@ -8,7 +8,7 @@ import { idParam, parse } from '../http/validate';
 import { gatherAnnexContent } from '../services/annex/annex-content';
 import { ANNEX_CONTENT_TYPE, annexFileName, writeAnnex } from '../services/annex/build-annex';
 import { recordAudit } from '../services/audit.service';
-import { attachmentHeaders, streamFailed } from './download-headers';
+import { attachmentHeaders, streamFailed } from './download-response';
 
 /** The technical annex (`server/services/annex/`): the workbook of a program, or of one cohort. */
 export function annexRoutes(ctx: AppContext): Router {

@@ -2,6 +2,7 @@ import { Link, useParams } from 'react-router-dom';
 import { CautionBanner } from '@/components/ui/caution-banner';
 import { PageHeader } from '@/components/ui/page-header';
 import { Empty, ErrorState, Loading } from '@/components/ui/states';
+import { AnnexDownloads } from '@/features/annex/components/annex-downloads';
 import { useCohortDetail } from '@/features/cohort/api/get-cohort-detail';
 import { CohortDetail } from '@/features/cohort/components/cohort-detail';
 import { useProgram } from '@/features/programs/api/get-program';
@@ -36,7 +37,16 @@ export default function CohortRoute() {
   }
   return (
     <>
-      <PageHeader title={`${program.data.name}: ${title}`} lead={back} actions={<PrintButton />} />
+      <PageHeader
+        title={`${program.data.name}: ${title}`}
+        lead={back}
+        actions={
+          <>
+            <AnnexDownloads programId={programId} period={period} />
+            <PrintButton />
+          </>
+        }
+      />
       <CautionBanner />
       <CohortDetail program={program.data} detail={detail.data} />
     </>

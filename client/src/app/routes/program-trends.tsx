@@ -2,6 +2,7 @@ import { useParams } from 'react-router-dom';
 import { CautionBanner } from '@/components/ui/caution-banner';
 import { PageHeader } from '@/components/ui/page-header';
 import { ErrorState, Loading } from '@/components/ui/states';
+import { AnnexDownloads } from '@/features/annex/components/annex-downloads';
 import { ProgramNav } from '@/features/programs/components/program-nav';
 import { useProgram } from '@/features/programs/api/get-program';
 import { useResultsOverview } from '@/features/results/api/get-results-overview';
@@ -17,7 +18,7 @@ export default function ProgramTrendsRoute() {
   if (overview.isError) return <ErrorState error={overview.error} onRetry={() => void overview.refetch()} />;
   return (
     <>
-      <PageHeader title={program.data.name} lead="What qualifying changes, month by month, for the people near the cutoff." />
+      <PageHeader title={program.data.name} lead="What qualifying changes, month by month, for the people near the cutoff." actions={<AnnexDownloads programId={programId} />} />
       <ProgramNav program={program.data} />
       <CautionBanner />
       <TrendDashboard program={program.data} overview={overview.data} />

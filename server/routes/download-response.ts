@@ -1,3 +1,4 @@
+import { once } from 'node:events';
 import type { Response } from 'express';
 import type { AppContext } from '../app-context';
 
@@ -22,4 +23,10 @@ export function streamFailed(ctx: AppContext, res: Response, err: unknown, ids: 
   }
   ctx.logger.error({ err, programId: ids.programId, download: ids.what }, 'download failed while streaming');
   res.destroy();
+}
+
+/** Writes a chunk of a streamed download, waiting when the client reads more slowly than we write. */
+export async function writeChunk(res: Response, chunk: string): Promise<void> {
+  if (res.write(chunk)) return;
+  await once(res, 'drain');
 }
