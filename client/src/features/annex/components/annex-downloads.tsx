@@ -38,12 +38,11 @@ export function DeidentifiedExportButton({ programId, range }: { programId: numb
   );
 }
 
-/** Both downloads side by side, for a page's header actions or a program card. */
+/** The downloads of a program or month, side by side, for a page's header actions. */
 export function AnnexDownloads({ programId, period }: { programId: number; period?: string }) {
   return (
     <span className="inline-flex flex-wrap items-start gap-3">
       <AnnexDownloadButton programId={programId} period={period} />
-      <DeidentifiedExportButton programId={programId} range={period ? { from: period, to: period } : undefined} />
     </span>
   );
 }
