@@ -19,15 +19,16 @@ export function DownloadButton({ path, fallbackName, label, workingLabel }: { pa
     }
   };
   return (
-    <span className="inline-flex flex-col items-start gap-1">
+    // The status line hangs below the button, so it never stretches the buttons beside it.
+    <span className="relative inline-flex">
       <button type="button" className={buttonSecondary} disabled={state.kind === 'working'} onClick={() => void start()}>
         {state.kind === 'working' ? workingLabel : label}
       </button>
-      <span role="status" aria-live="polite" className="text-xs text-ink-500">
+      <span role="status" aria-live="polite" className="absolute top-full right-0 mt-1 text-xs whitespace-nowrap text-ink-500">
         {state.kind === 'done' ? `Saved ${state.name}.` : null}
       </span>
       {state.kind === 'failed' ? (
-        <span role="alert" className="max-w-sm text-xs text-serious">
+        <span role="alert" className="absolute top-full right-0 z-10 mt-1 w-80 rounded border border-serious bg-panel p-2 text-xs text-serious shadow">
           {state.message}
         </span>
       ) : null}
