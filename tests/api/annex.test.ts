@@ -184,6 +184,19 @@ describe('technical annex', () => {
       expect(b.get('Observations')!.value).toBe(stored[i]!.n);
       expect(b.get('Mean outcome')!.value).toBe(stored[i]!.outcomeMean);
     });
+    // The balance block of Diagnostics: the stored balance rows of each outcome, as numbers.
+    const diagnostics = wb.getWorksheet('Diagnostics')!;
+    let balanceHeader = 0;
+    diagnostics.eachRow((r, n) => {
+      if (r.getCell(3).value === 'Covariate') balanceHeader = n;
+    });
+    expect(balanceHeader).toBeGreaterThan(0);
+    const balance = tableRows(diagnostics, balanceHeader).filter((b) => b.get('Scope')!.value === 'cohort:2025-04');
+    const apiBalance = detail.outcomes.flatMap((o) => ((o.diagnostics?.balance ?? []) as Array<{ covariate: string; jump: number; pAdjusted: number }>).map((b) => ({ outcome: o.outcome.key, ...b })));
+    expect(apiBalance.length).toBeGreaterThan(0);
+    expect(balance.map((b) => [b.get('Outcome')!.value, b.get('Covariate')!.value, b.get('Jump')!.value, b.get('Holm-adjusted p')!.value])).toEqual(apiBalance.map((b) => [b.outcome, b.covariate, b.jump, b.pAdjusted]));
+    const fits = bins.filter((b) => b.get('Scope')!.value === 'cohort:2025-04' && b.get('Chart')!.value === 'outcome, fitted line');
+    expect(fits.length).toBeGreaterThan(0);
     const caveats = tableRows(wb.getWorksheet('Caveats')!);
     const apiCaveats = detail.outcomes.flatMap((o) => o.caveats.map((c) => `${o.outcome.key}|${c.code}|${c.message}`));
     const sheetCaveats = caveats.filter((c) => c.get('Scope')!.value === 'cohort:2025-04').map((c) => `${c.get('Outcome')!.value}|${c.get('Code')!.value}|${c.get('Message')!.value}`);

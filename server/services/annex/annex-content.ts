@@ -9,6 +9,9 @@ import { getDesign } from '../designs.service';
 import { getProgram } from '../programs.service';
 import { getCohortDetail, getCohortTrend, getResultsOverview } from '../results.service';
 
+/** What the recompute stores of a `DiagnosticsReport`: every finding; the caveats are on the result itself. */
+export type StoredDiagnostics = Omit<DiagnosticsReport, 'caveats'>;
+
 /** What the annex covers: every stored result of the primary design, or one cohort's. */
 export type AnnexScope = { kind: 'program' } | { kind: 'cohort'; period: string };
 
@@ -26,8 +29,8 @@ export interface AnnexRequest {
  */
 export interface AnnexResult {
   result: OutcomeResultDto;
-  /** The diagnostics report as stored (`shared/diagnostics`), or null (windows, or not run). */
-  diagnostics: DiagnosticsReport | null;
+  /** The diagnostics' findings as stored (`shared/diagnostics`, without their caveats: those are the result's), or null. */
+  diagnostics: StoredDiagnostics | null;
   bins: BinDto[];
   deviations: DeviationDto[];
   /** Settings of the design version recorded in the result's provenance (null if that version is unknown). */
@@ -152,11 +155,11 @@ function provenanceSummary(results: readonly AnnexResult[], design: DesignDetail
 }
 
 /**
- * The stored diagnostics are the `DiagnosticsReport` that `runDiagnostics` returned, kept as JSON
- * (`OutcomeResultDetailDto.diagnostics`). Anything without its keys (an older or partial row) is
- * treated as "not run" rather than guessed at.
+ * The stored diagnostics are the findings `runDiagnostics` returned, kept as JSON
+ * (`OutcomeResultDetailDto.diagnostics`). Anything without their list keys (an older or partial
+ * row) is treated as "not run" rather than guessed at.
  */
-function asDiagnosticsReport(value: Record<string, unknown> | null): DiagnosticsReport | null {
-  if (!value || !Array.isArray(value.balance) || !Array.isArray(value.caveats)) return null;
-  return value as unknown as DiagnosticsReport;
+function asDiagnosticsReport(value: Record<string, unknown> | null): StoredDiagnostics | null {
+  if (!value || !Array.isArray(value.balance) || !Array.isArray(value.placebo) || !Array.isArray(value.sensitivity)) return null;
+  return value as unknown as StoredDiagnostics;
 }

@@ -1,5 +1,4 @@
-import type { DiagnosticsReport } from '@shared/diagnostics';
-import type { AnnexContent, AnnexResult } from './annex-content';
+import type { AnnexContent, AnnexResult, StoredDiagnostics } from './annex-content';
 import { NUMBER_FORMATS as F, SheetBuilder, type ColumnSpec } from './sheet-model';
 
 /** A diagnostic row with the result it belongs to. */
@@ -15,14 +14,14 @@ const scopeColumns = <T>(): Array<ColumnSpec<Row<T>>> => [
 
 /**
  * Diagnostics: one block per check, each a table over every cohort and outcome that has stored
- * diagnostics (`DiagnosticsReport`, `shared/diagnostics/types.ts`). Score positions are measured
+ * diagnostics (`StoredDiagnostics`, `shared/diagnostics/types.ts`). Score positions are measured
  * from the cohort's cutoff (score − cutoff), as the recompute analyses them. Estimates are the
  * engine's conventional ones with robust bias-corrected intervals and p, unless a header says
  * otherwise. A check the data did not allow is absent here and named in a `check_not_run` caveat.
  */
 export function diagnosticsSheet(content: AnnexContent): SheetBuilder {
   const sheet = new SheetBuilder('Diagnostics');
-  const withReport = content.results.filter((r): r is AnnexResult & { diagnostics: DiagnosticsReport } => r.diagnostics !== null);
+  const withReport = content.results.filter((r): r is AnnexResult & { diagnostics: StoredDiagnostics } => r.diagnostics !== null);
   sheet.title('Diagnostics');
   sheet.note('Score positions are measured from the cohort’s cutoff (score − cutoff). Intervals are robust bias-corrected and p-values robust unless a header says otherwise.');
   sheet.note('Pooled windows are not listed: their diagnostics are not stored separately. A check the data did not allow is absent and named on the Caveats sheet (code check_not_run).');
@@ -30,12 +29,12 @@ export function diagnosticsSheet(content: AnnexContent): SheetBuilder {
     sheet.blank().note('No diagnostics are stored for these results yet.');
     return sheet;
   }
-  const rows = <T>(pick: (d: DiagnosticsReport) => T | null | undefined): Array<Row<T>> =>
+  const rows = <T>(pick: (d: StoredDiagnostics) => T | null | undefined): Array<Row<T>> =>
     withReport.flatMap((r) => {
       const d = pick(r.diagnostics);
       return d === null || d === undefined ? [] : [{ r, d }];
     });
-  const many = <T>(pick: (d: DiagnosticsReport) => readonly T[] | null | undefined): Array<Row<T>> =>
+  const many = <T>(pick: (d: StoredDiagnostics) => readonly T[] | null | undefined): Array<Row<T>> =>
     withReport.flatMap((r) => (pick(r.diagnostics) ?? []).map((d) => ({ r, d })));
   const block = <T>(title: string, columns: Array<ColumnSpec<Row<T>>>, items: Array<Row<T>>) => {
     sheet.blank().heading(title);

@@ -40,30 +40,41 @@ function writeSheet(workbook: ExcelJS.stream.xlsx.WorkbookWriter, sheet: SheetBu
   worksheet.commit();
 }
 
+/**
+ * Style objects shared by every cell that looks the same. exceljs looks a cell's style up by the
+ * object's identity first, so handing it the same object is what keeps a 100,000-cell annex fast;
+ * the objects are never changed after they are made (no `cell.font = …`, which would mutate them).
+ */
+const sharedStyles = new Map<string, Partial<ExcelJS.Style>>();
+
+function styleFor(kind: SheetRow['kind'], numFmt: string | undefined, wrap: boolean): Partial<ExcelJS.Style> {
+  const key = `${kind}|${numFmt ?? ''}|${wrap ? 'wrap' : ''}`;
+  let style = sharedStyles.get(key);
+  if (!style) {
+    style = {};
+    if (numFmt) style.numFmt = numFmt;
+    if (wrap) style.alignment = { wrapText: true, vertical: 'top' };
+    if (kind === 'title') style.font = { name: FONT, size: 14, bold: true };
+    if (kind === 'heading') style.font = { name: FONT, size: 12, bold: true };
+    if (kind === 'header') {
+      style.font = { name: FONT, bold: true };
+      style.fill = HEADER_FILL;
+      style.border = { bottom: { style: 'thin' } };
+      style.alignment = { wrapText: true, vertical: 'bottom' };
+    }
+    sharedStyles.set(key, Object.freeze(style));
+  }
+  return style;
+}
+
 function writeRow(worksheet: ExcelJS.Worksheet, model: SheetRow, widths: readonly number[], wrapNotes: boolean): void {
   // Values only ever numbers, text or empty (SheetBuilder guarantees it): no formula is written.
   const row = worksheet.addRow(model.cells.map((c) => c.value));
   model.cells.forEach((cell, i) => {
-    const target = row.getCell(i + 1);
-    if (cell.numFmt) target.numFmt = cell.numFmt;
-    const width = widths[i] ?? 10;
-    if (typeof cell.value === 'string' && model.kind === 'body' && displayedText(cell).length > width) {
-      target.alignment = { wrapText: true, vertical: 'top' };
-    }
-    if (model.kind === 'note' && wrapNotes && typeof cell.value === 'string' && cell.value.length > width) {
-      target.alignment = { wrapText: true, vertical: 'top' };
-    }
+    const long = typeof cell.value === 'string' && displayedText(cell).length > (widths[i] ?? 10);
+    const wrap = long && (model.kind === 'body' || (model.kind === 'note' && wrapNotes));
+    // Every cell gets a shared object, plain ones too (a fresh `{}` per cell is a lookup miss each).
+    row.getCell(i + 1).style = styleFor(model.kind, cell.numFmt, wrap);
   });
-  if (model.kind === 'title') row.font = { name: FONT, size: 14, bold: true };
-  if (model.kind === 'heading') row.font = { name: FONT, size: 12, bold: true };
-  if (model.kind === 'header') {
-    model.cells.forEach((_c, i) => {
-      const target = row.getCell(i + 1);
-      target.font = { name: FONT, bold: true };
-      target.fill = HEADER_FILL;
-      target.border = { bottom: { style: 'thin' } };
-      target.alignment = { wrapText: true, vertical: 'bottom' };
-    });
-  }
   row.commit();
 }
