@@ -84,5 +84,14 @@ describe('administrator sets up programs', () => {
     await page.screenshot({ path: screenshotPath('admin-program-created'), fullPage: true });
     const list = (await api.get('/api/programs').expect(200)).body;
     expect(list.items.map((p: { slug: string }) => p.slug)).toContain('summer-tutoring');
+
+    // Schedules: the demo director's summary, paused from the screen.
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Schedules' }).click();
+    const table = page.getByRole('table', { name: 'Summary e-mail schedules' });
+    await table.getByRole('button', { name: /^Pause the summary of/ }).first().click();
+    await table.getByRole('button', { name: /^Resume the summary of/ }).first().waitFor();
+    const schedules = (await api.get('/api/admin/schedules').expect(200)).body;
+    expect(schedules.summaries[0].paused).toBe(true);
+    await page.screenshot({ path: screenshotPath('admin-schedules'), fullPage: true });
   });
 });

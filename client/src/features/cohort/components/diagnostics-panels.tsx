@@ -70,7 +70,10 @@ export function DiagnosticsPanels({ diagnostics, result, cutoff, scoreLabel, cov
           <dl className="figures grid grid-cols-2 gap-3 text-sm">
             <Fact term="First-stage F" value={`${formatNumber(d.weakFirstStage.f, 1)} ${d.weakFirstStage.belowRuleOfThumb ? '(below 10: weak)' : d.weakFirstStage.belowStockYogo ? '(below 16.4)' : '(strong)'}`} />
             <Fact term="Take-up jump" value={formatJump(d.weakFirstStage.firstStage, { unit: 'share' })} />
-            <Fact term="tF-adjusted 95% interval" value={formatInterval(d.weakFirstStage.tfCiLow, d.weakFirstStage.tfCiHigh, o)} />
+            <Fact
+              term="tF-adjusted 95% interval"
+              value={d.weakFirstStage.tfCiLow === null && d.weakFirstStage.tfCiHigh === null ? 'unbounded: too weak for any interval' : formatInterval(d.weakFirstStage.tfCiLow, d.weakFirstStage.tfCiHigh, o)}
+            />
             <Fact
               term="Anderson–Rubin set"
               value={
