@@ -24,6 +24,38 @@ export const ERROR_CODES = [
   'result_not_found',
   // E-mail.
   'mail_not_sent',
+  // Extracts: refused at upload (the HTTP answer carries the code; nothing is stored).
+  'extract_format_unsupported',
+  'extract_empty',
+  'extract_unreadable',
+  'extract_encoding_invalid',
+  'extract_header_invalid',
+  'extract_sheet_not_found',
+  'extract_period_invalid',
+  'extract_too_many_rows',
+  // Extracts: whole-file problems found by validation (shown on the report; the extract cannot be accepted).
+  'extract_column_missing',
+  'extract_mapping_invalid',
+  'extract_wrong_period',
+  'extract_duplicate_subject',
+  'extract_scores_one_side',
+  'extract_take_up_constant',
+  // Extracts: row problems (each rejected row carries one; too many of one kind stop the file).
+  'extract_row_malformed',
+  'extract_subject_missing',
+  'extract_value_missing',
+  'extract_value_not_numeric',
+  'extract_value_not_finite',
+  'extract_value_not_binary',
+  'extract_take_up_unknown',
+  'extract_score_out_of_range',
+  'extract_date_invalid',
+  'extract_date_outside_period',
+  'extract_period_mismatch',
+  // Extracts: decisions and processing.
+  'extract_state_conflict',
+  'extract_observations_purged',
+  'extract_processing_failed',
 ] as const;
 
 export type ErrorCode = (typeof ERROR_CODES)[number];

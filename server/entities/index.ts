@@ -1,5 +1,6 @@
 import { AuditEvent } from './audit-event.entity';
 import { CaveatAcknowledgement } from './caveat-acknowledgement.entity';
+import { ClusterCode } from './cluster-code.entity';
 import { Cohort } from './cohort.entity';
 import { CovariateDefinition } from './covariate-definition.entity';
 import { CutoffChange } from './cutoff-change.entity';
@@ -9,12 +10,17 @@ import { EmailMessage } from './email-message.entity';
 import { EstimateResult } from './estimate-result.entity';
 import { EstimateResultDetail } from './estimate-result-detail.entity';
 import { EvaluationDesign } from './evaluation-design.entity';
+import { Extract } from './extract.entity';
+import { ExtractRejectedRow } from './extract-rejected-row.entity';
+import { ExtractSource } from './extract-source.entity';
 import { HttpSession } from './http-session.entity';
+import { Observation } from './observation.entity';
 import { OutcomeDefinition } from './outcome-definition.entity';
 import { Program } from './program.entity';
 import { RecomputeRun } from './recompute-run.entity';
 import { RoleGrant } from './role-grant.entity';
 import { SamlRequest } from './saml-request.entity';
+import { SavedMapping } from './saved-mapping.entity';
 import { SummarySubscription } from './summary-subscription.entity';
 import { UsedAssertion } from './used-assertion.entity';
 import { User } from './user.entity';
@@ -23,6 +29,7 @@ import { User } from './user.entity';
 export const ENTITIES = [
   AuditEvent,
   CaveatAcknowledgement,
+  ClusterCode,
   Cohort,
   CovariateDefinition,
   CutoffChange,
@@ -32,12 +39,17 @@ export const ENTITIES = [
   EstimateResult,
   EstimateResultDetail,
   EvaluationDesign,
+  Extract,
+  ExtractRejectedRow,
+  ExtractSource,
   HttpSession,
+  Observation,
   OutcomeDefinition,
   Program,
   RecomputeRun,
   RoleGrant,
   SamlRequest,
+  SavedMapping,
   SummarySubscription,
   UsedAssertion,
   User,

@@ -45,6 +45,14 @@ export class Program {
   @Column({ type: 'varchar', length: 100, default: 'take part' })
   takeUpPhrase!: string;
 
+  /** Largest share of rejected rows with which an extract may still be accepted (0.02 = 2%). */
+  @Column({ type: 'decimal', precision: 5, scale: 4, default: 0.02 })
+  maxRejectedShare!: number;
+
+  /** Months of row-level observations kept before the purge job deletes them (results stay). */
+  @Column({ type: 'smallint', unsigned: true, default: 36 })
+  retentionMonths!: number;
+
   @CreatedAtColumn()
   createdAt!: Date;
 
