@@ -6,6 +6,7 @@ import { createDataSource } from './db/data-source';
 import { createApp } from './app';
 import { listen } from './http-server';
 import { createLogger } from './lib/logger';
+import { ingestWorker } from './services/ingest/ingest-worker';
 
 /**
  * Production entry (`tsx server/main.ts`): connects to the database named by the environment,
@@ -25,8 +26,12 @@ async function main(): Promise<void> {
   const app = createApp({ config, dataSource, logger, identityProvider, visiblePrograms: visibleProgramsOf });
   const http = await listen(app, config.app.port, process.env.CUTLINE_LISTEN_HOST ?? '127.0.0.1');
   logger.info({ port: http.port }, 'Cutline is serving');
+  // Extract work interrupted by a crash or restart resumes from its last durable step.
+  const ingest = ingestWorker({ config, dataSource, logger });
+  await ingest.recover();
   const shutdown = async () => {
     await http.close();
+    await ingest.stop();
     await dataSource.destroy();
     process.exit(0);
   };

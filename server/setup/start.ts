@@ -9,6 +9,7 @@ import { installDemoScenario } from '../demo/install-demo';
 import { listen } from '../http-server';
 import { createLogger } from '../lib/logger';
 import { startLocalMailIfConfigured } from '../dev/local-smtp/start-local-mail';
+import { ingestWorker } from '../services/ingest/ingest-worker';
 import { ensureClientBuilt } from './client-build';
 import { openDevDatabase } from './database';
 import { prepareLocalEnv } from './local-env';
@@ -26,7 +27,7 @@ async function main(): Promise<void> {
 
   ensureClientBuilt(say);
   const dataSource = await openDevDatabase(config, say);
-  const demo = await installDemoScenario(dataSource);
+  const demo = await installDemoScenario(dataSource, { config, logger, log: say });
   if (demo.installed) say('Installed the invented demo scenario (Winter Heating Credit).');
 
   const idpSource = config.auth.identityProvider;
@@ -38,6 +39,8 @@ async function main(): Promise<void> {
   const http = await listen(app, config.app.port);
   const localMail = await startLocalMailIfConfigured(config, say);
   const scheduler = startScheduler({ config, dataSource, logger, now: () => new Date() });
+  const ingest = ingestWorker({ config, dataSource, logger });
+  await ingest.recover();
   say(`Cutline is ready: ${config.app.publicUrl}/`);
 
   let stopping = false;
@@ -49,6 +52,7 @@ async function main(): Promise<void> {
     await localMail?.close();
     await http.close();
     await localIdp?.close();
+    await ingest.stop();
     await dataSource.destroy();
     say('Stopped. The database is still running; `npm run db:stop` stops it.');
     process.exit(0);

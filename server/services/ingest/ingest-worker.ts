@@ -34,11 +34,13 @@ export class IngestWorker {
     while (this.running) await this.running;
   }
 
-  /** Stops taking work; the current step finishes or is resumed by the next start. */
+  /**
+   * Stops taking work. A step still running is cut off when the database closes and left in its
+   * status, so the next start resumes it (it is not marked failed).
+   */
   async stop(): Promise<void> {
     this.stopped = true;
     this.queue.length = 0;
-    await this.idle();
   }
 
   /**
@@ -61,7 +63,9 @@ export class IngestWorker {
   private async drain(): Promise<void> {
     while (this.queue.length > 0 && !this.stopped) {
       const id = this.queue.shift()!;
-      await this.step(id).catch((err: unknown) => this.deps.logger.error({ extractId: id, err: safeError(err) }, 'extract work failed'));
+      await this.step(id).catch((err: unknown) => {
+        if (!this.stopped) this.deps.logger.error({ extractId: id, err: safeError(err) }, 'extract work failed');
+      });
     }
   }
 
@@ -82,11 +86,11 @@ export class IngestWorker {
         if (extract.status === 'validating') await validateExtract(this.deps, extractId);
         else await loadExtract(this.deps, extractId);
       } catch (err) {
-        await this.fail(extract, err);
+        if (!this.stopped) await this.fail(extract, err);
         throw err;
       }
     } finally {
-      await lock.release();
+      await lock.release().catch(() => undefined);
     }
   }
 

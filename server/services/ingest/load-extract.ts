@@ -37,6 +37,7 @@ export async function loadExtract(deps: IngestDeps, extractId: number): Promise<
     await ds.query(`DROP TABLE IF EXISTS \`${stage}\``);
     await ds.query(`CREATE TABLE \`${stage}\` LIKE observation`);
     let loaded = 0;
+    const started = Date.now();
     await repo.update({ id: extractId }, { progress: { phase: 'loading', done: 0, total: expected, unit: 'rows' } });
     const sql =
       `LOAD DATA LOCAL INFILE ? INTO TABLE \`${stage}\` CHARACTER SET utf8mb4 FIELDS TERMINATED BY '\\t' LINES TERMINATED BY '\\n' ` +
@@ -49,8 +50,9 @@ export async function loadExtract(deps: IngestDeps, extractId: number): Promise<
       throw new AppError('extract_processing_failed', `The database took ${loaded} rows where ${expected} were checked. Nothing was stored; try again.`);
     }
     await repo.update({ id: extractId }, { progress: { phase: 'publishing', done: loaded, total: expected, unit: 'rows' } });
+    const staged = Date.now();
     const replaced = await ds.transaction(async (tx) => publish(tx, extract, stage));
-    deps.logger.info({ extractId, rows: loaded, superseded: replaced }, 'extract accepted');
+    deps.logger.info({ extractId, rows: loaded, superseded: replaced, stageMs: staged - started, publishMs: Date.now() - staged }, 'extract accepted');
   } finally {
     release().catch(() => undefined);
   }

@@ -4,6 +4,7 @@ import type { VariableKind } from '@shared/schemas/program';
 import { AppError } from '../../lib/errors';
 import type { ObservationSlots } from '../../entities/extract.entity';
 import type { RowRules } from './row-checks';
+import { monthIndex } from './values';
 
 /** What validation needs to know about the program. */
 export interface ProgramFacts {
@@ -60,6 +61,7 @@ export function buildRowRules(
   });
   return {
     period,
+    periodMonth: monthIndex(period),
     scoreMin: program.scoreMin,
     scoreMax: program.scoreMax,
     headerLength: columns.length,

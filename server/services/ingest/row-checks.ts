@@ -2,11 +2,13 @@ import type { ErrorCode } from '@shared/errors';
 import type { ColumnMapping } from '@shared/schemas/extract';
 import type { VariableKind } from '@shared/schemas/program';
 import { isBlank, type Cell } from './cells';
-import { parseDate, parseNumber, parsePeriodCell } from './values';
+import { monthPeriod, parseDateMonth, parseNumber, parsePeriodCell, type NumberProblem } from './values';
 
 /** The mapping with columns resolved to positions in the row, and what each value must satisfy. */
 export interface RowRules {
   period: string;
+  /** `period` as a month index (values.ts), compared with each application date's month. */
+  periodMonth: number;
   scoreMin: number;
   scoreMax: number;
   headerLength: number;
@@ -28,19 +30,24 @@ export interface RowRules {
   covariates: Array<{ key: string; column: number | null; kind: VariableKind }>;
 }
 
-/** A row that passed: values in slot order, NaN where an optional value is blank. */
-export interface CheckedRow {
-  ok: true;
-  subject: string;
-  score: number;
-  takeUp: 0 | 1 | null;
-  cluster: string | null;
-  outcomes: number[];
-  covariates: number[];
+/**
+ * The values of a row that passed, written in place (one instance is reused for every row, so
+ * checking allocates nothing per row but the strings it must keep). NaN marks a blank optional value.
+ */
+export class RowValues {
+  subject = '';
+  score = 0;
+  takeUp: 0 | 1 | null = null;
+  cluster: string | null = null;
+  readonly outcomes: Float64Array;
+  readonly covariates: Float64Array;
+  constructor(rules: RowRules) {
+    this.outcomes = new Float64Array(rules.outcomes.length);
+    this.covariates = new Float64Array(rules.covariates.length);
+  }
 }
 
 export interface RowProblem {
-  ok: false;
   code: ErrorCode;
   /** Column name, or null for whole-row problems. */
   column: string | null;
@@ -51,95 +58,113 @@ export interface RowProblem {
   quoted?: string;
 }
 
-/** Checks one row against the rules; the first problem found rejects the row. */
-export function checkRow(rules: RowRules, cells: Cell[]): CheckedRow | RowProblem {
+/**
+ * Checks one row against the rules and fills `out` with its values.
+ * @returns null when the row passes, else its first problem
+ */
+export function checkRow(rules: RowRules, cells: Cell[], out: RowValues): RowProblem | null {
   if (rules.strictFieldCount && cells.length !== rules.headerLength) {
     return problem('extract_row_malformed', null, `The row has ${cells.length} fields but the header has ${rules.headerLength}.`, null);
   }
-  const col = (i: number) => rules.columns[i] ?? `column ${i + 1}`;
 
   const subjectCell = cells[rules.subjectId];
-  if (isBlank(subjectCell)) return problem('extract_subject_missing', col(rules.subjectId), 'The subject identifier is blank.', null);
-  const subject = String(subjectCell instanceof Date ? subjectCell.toISOString() : subjectCell).trim();
+  if (isBlank(subjectCell)) return problem('extract_subject_missing', col(rules, rules.subjectId), 'The subject identifier is blank.', null);
+  out.subject = String(subjectCell instanceof Date ? subjectCell.toISOString() : subjectCell).trim();
 
   const decimal = rules.mapping.decimalSeparator;
   const scoreCell = cells[rules.score] ?? null;
   const score = parseNumber(scoreCell, decimal);
-  if (!score.ok) return numberProblem(score.problem, col(rules.score), scoreCell, true);
-  if (score.value < rules.scoreMin || score.value > rules.scoreMax) {
-    return problem('extract_score_out_of_range', col(rules.score), `The score is outside the program's range of ${rules.scoreMin} to ${rules.scoreMax}.`, scoreCell);
+  if (typeof score !== 'number') return numberProblem(score, col(rules, rules.score), scoreCell, true);
+  if (score < rules.scoreMin || score > rules.scoreMax) {
+    return problem('extract_score_out_of_range', col(rules, rules.score), `The score is outside the program's range of ${rules.scoreMin} to ${rules.scoreMax}.`, scoreCell);
   }
+  out.score = score;
 
-  let takeUp: 0 | 1 | null = null;
+  out.takeUp = null;
   if (rules.takeUp !== null) {
     const cell = cells[rules.takeUp] ?? null;
-    if (isBlank(cell)) return problem('extract_value_missing', col(rules.takeUp), 'Take-up is blank.', null);
+    if (isBlank(cell)) return problem('extract_value_missing', col(rules, rules.takeUp), 'Take-up is blank.', null);
     const code = (cell instanceof Date ? '' : String(cell)).trim().toLowerCase();
-    if (rules.takeUpYes.has(code)) takeUp = 1;
-    else if (rules.takeUpNo.has(code)) takeUp = 0;
+    if (rules.takeUpYes.has(code)) out.takeUp = 1;
+    else if (rules.takeUpNo.has(code)) out.takeUp = 0;
     else {
-      return { ...problem('extract_take_up_unknown', col(rules.takeUp), 'The take-up code is not one of the codes listed for "took up" or "did not".', cell), quoted: code.slice(0, 20) };
+      const p = problem('extract_take_up_unknown', col(rules, rules.takeUp), 'The take-up code is not one of the codes listed for "took up" or "did not".', cell);
+      p.quoted = code.slice(0, 20);
+      return p;
     }
   }
 
   if (rules.periodColumn !== null) {
     const cell = cells[rules.periodColumn] ?? null;
     const period = parsePeriodCell(cell);
-    if (period === null) return problem('extract_date_invalid', col(rules.periodColumn), 'The cohort period is not a month written YYYY-MM.', cell);
+    if (period === null) return problem('extract_date_invalid', col(rules, rules.periodColumn), 'The cohort period is not a month written YYYY-MM.', cell);
     if (period !== rules.period) {
-      return { ...problem('extract_period_mismatch', col(rules.periodColumn), `The row belongs to ${period}, not ${rules.period}.`, cell), quoted: period };
+      const p = problem('extract_period_mismatch', col(rules, rules.periodColumn), `The row belongs to ${period}, not ${rules.period}.`, cell);
+      p.quoted = period;
+      return p;
     }
   }
   if (rules.applicationDate !== null) {
     const cell = cells[rules.applicationDate] ?? null;
-    const date = parseDate(cell, rules.mapping.dateFormat);
-    if (!date.ok) {
-      return date.problem === 'missing'
-        ? problem('extract_value_missing', col(rules.applicationDate), 'The application date is blank.', null)
-        : problem('extract_date_invalid', col(rules.applicationDate), `The application date is not a date written ${rules.mapping.dateFormat}.`, cell);
+    const month = parseDateMonth(cell, rules.mapping.dateFormat);
+    if (month === 'missing') return problem('extract_value_missing', col(rules, rules.applicationDate), 'The application date is blank.', null);
+    if (month === 'invalid') {
+      return problem('extract_date_invalid', col(rules, rules.applicationDate), `The application date is not a date written ${rules.mapping.dateFormat}.`, cell);
     }
-    if (date.period !== rules.period) {
-      return { ...problem('extract_date_outside_period', col(rules.applicationDate), `The application date falls outside ${rules.period}.`, cell), quoted: date.period };
+    if (month !== rules.periodMonth) {
+      const p = problem('extract_date_outside_period', col(rules, rules.applicationDate), `The application date falls outside ${rules.period}.`, cell);
+      p.quoted = monthPeriod(month);
+      return p;
     }
   }
 
-  const outcomes: number[] = [];
-  for (const o of rules.outcomes) {
-    const value = optionalValue(cells[o.column] ?? null, o.kind, col(o.column), decimal);
-    if (typeof value !== 'number') return value;
-    outcomes.push(value);
+  for (let i = 0; i < rules.outcomes.length; i++) {
+    const o = rules.outcomes[i]!;
+    const bad = optionalValue(cells[o.column] ?? null, o.kind, rules, o.column, out.outcomes, i);
+    if (bad) return bad;
   }
-  const covariates: number[] = [];
-  for (const c of rules.covariates) {
+  for (let i = 0; i < rules.covariates.length; i++) {
+    const c = rules.covariates[i]!;
     if (c.column === null) {
-      covariates.push(Number.NaN);
+      out.covariates[i] = Number.NaN;
       continue;
     }
-    const value = optionalValue(cells[c.column] ?? null, c.kind, col(c.column), decimal);
-    if (typeof value !== 'number') return value;
-    covariates.push(value);
+    const bad = optionalValue(cells[c.column] ?? null, c.kind, rules, c.column, out.covariates, i);
+    if (bad) return bad;
   }
   const clusterCell = rules.cluster === null ? null : (cells[rules.cluster] ?? null);
-  const cluster = isBlank(clusterCell) ? null : String(clusterCell instanceof Date ? clusterCell.toISOString() : clusterCell).trim();
-  return { ok: true, subject, score: score.value, takeUp, cluster, outcomes, covariates };
+  out.cluster = isBlank(clusterCell) ? null : String(clusterCell instanceof Date ? clusterCell.toISOString() : clusterCell).trim();
+  return null;
 }
 
-/** Outcomes and covariates may be blank (stored as missing); a value present must be a finite number, 0/1 when binary. */
-function optionalValue(cell: Cell, kind: VariableKind, column: string, decimal: '.' | ','): number | RowProblem {
-  const parsed = parseNumber(cell, decimal);
-  if (!parsed.ok) return parsed.problem === 'missing' ? Number.NaN : numberProblem(parsed.problem, column, cell, false);
-  if (kind === 'binary' && parsed.value !== 0 && parsed.value !== 1) {
-    return problem('extract_value_not_binary', column, `'${column}' is a yes/no value and must be 0 or 1.`, cell);
+/** Outcomes and covariates may be blank (missing); a value present must be a finite number, 0/1 when binary. */
+function optionalValue(cell: Cell, kind: VariableKind, rules: RowRules, column: number, into: Float64Array, at: number): RowProblem | null {
+  const value = parseNumber(cell, rules.mapping.decimalSeparator);
+  if (typeof value !== 'number') {
+    if (value === 'missing') {
+      into[at] = Number.NaN;
+      return null;
+    }
+    return numberProblem(value, col(rules, column), cell, false);
   }
-  return parsed.value;
+  if (kind === 'binary' && value !== 0 && value !== 1) {
+    const name = col(rules, column);
+    return problem('extract_value_not_binary', name, `'${name}' is a yes/no value and must be 0 or 1.`, cell);
+  }
+  into[at] = value;
+  return null;
 }
 
-function numberProblem(kind: 'missing' | 'not-numeric' | 'not-finite', column: string, cell: Cell, required: boolean): RowProblem {
-  if (kind === 'missing' && required) return problem('extract_value_missing', column, `'${column}' is blank.`, null);
+function numberProblem(kind: NumberProblem, column: string, cell: Cell, required: boolean): RowProblem | null {
+  if (kind === 'missing') return required ? problem('extract_value_missing', column, `'${column}' is blank.`, null) : null;
   if (kind === 'not-finite') return problem('extract_value_not_finite', column, `'${column}' is not a finite number (NaN or infinity).`, cell);
   return problem('extract_value_not_numeric', column, `'${column}' is not a number.`, cell);
 }
 
+function col(rules: RowRules, i: number): string {
+  return rules.columns[i] ?? `column ${i + 1}`;
+}
+
 function problem(code: ErrorCode, column: string | null, reason: string, cell: Cell | null): RowProblem {
-  return { ok: false, code, column, reason, cell };
+  return { code, column, reason, cell };
 }

@@ -18,8 +18,8 @@ export interface OpenedTable {
   /** Header cells as text, in file order (blank ones included). */
   headerCells: string[];
   headerLine: number;
-  /** Data rows after the header; rows whose cells are all blank are skipped. */
-  rows: AsyncGenerator<TableRow, void, undefined>;
+  /** Data rows after the header, in batches (fewer promises a row); rows whose cells are all blank are skipped. */
+  batches: AsyncGenerator<TableRow[], void, undefined>;
   sheet: string | null;
   delimiter: string | null;
   /** Bytes of the file read so far and in all, for progress. */
@@ -47,10 +47,9 @@ export async function openTable(file: string, format: ExtractFormat, options: Op
   const totalBytes = fs.statSync(file).size;
   if (totalBytes === 0) throw new AppError('extract_empty', 'The file is empty. Export the month again and upload the new file.');
   const source = format === 'csv' ? openCsv(file, options.delimiter ?? null) : openXlsx(file, options.sheet ?? null);
-  const rows = source.rows;
-  let first: IteratorResult<TableRow, void>;
+  let first: IteratorResult<TableRow[], void>;
   try {
-    first = await rows.next();
+    first = await source.batches.next();
   } catch (err) {
     await source.close();
     throw err;
@@ -59,10 +58,15 @@ export async function openTable(file: string, format: ExtractFormat, options: Op
     await source.close();
     throw new AppError('extract_empty', 'The file has no rows at all: not even a header. Export the month again and upload the new file.');
   }
+  const [header, ...rest] = first.value;
+  async function* batches(): AsyncGenerator<TableRow[], void, undefined> {
+    if (rest.length > 0) yield rest;
+    yield* source.batches;
+  }
   return {
-    headerCells: first.value.cells.map((c) => (c === null ? '' : c instanceof Date ? c.toISOString().slice(0, 10) : String(c).trim())),
-    headerLine: first.value.line,
-    rows,
+    headerCells: header!.cells.map((c) => (c === null ? '' : c instanceof Date ? c.toISOString().slice(0, 10) : String(c).trim())),
+    headerLine: header!.line,
+    batches: batches(),
     sheet: source.sheet(),
     delimiter: source.delimiter,
     bytesRead: source.bytesRead,
@@ -71,8 +75,10 @@ export async function openTable(file: string, format: ExtractFormat, options: Op
   };
 }
 
+const BATCH_ROWS = 2048;
+
 interface RowSource {
-  rows: AsyncGenerator<TableRow, void, undefined>;
+  batches: AsyncGenerator<TableRow[], void, undefined>;
   sheet: () => string | null;
   delimiter: string | null;
   bytesRead: () => number;
@@ -120,24 +126,30 @@ function openCsv(file: string, knownDelimiter: string | null): RowSource {
   const input = fs.createReadStream(file, { highWaterMark: 256 * 1024 });
   pipeline(input, utf8Check, parser, () => undefined);
 
-  async function* rows(): AsyncGenerator<TableRow, void, undefined> {
+  async function* batches(): AsyncGenerator<TableRow[], void, undefined> {
     // A record's start line is the line after the previous record ended.
     let previousEnd = 0;
     try {
-      for await (const record of parser as AsyncIterable<Array<string | number>>) {
-        const endLine = record.pop() as number;
-        const line = previousEnd + 1;
-        previousEnd = endLine;
-        const cells = record as string[];
-        if (cells.every((c) => c.trim() === '')) continue;
-        yield { line, cells };
+      for (;;) {
+        const batch: TableRow[] = [];
+        let record: Array<string | number> | null;
+        while (batch.length < BATCH_ROWS && (record = parser.read() as Array<string | number> | null) !== null) {
+          const endLine = record.pop() as number;
+          const line = previousEnd + 1;
+          previousEnd = endLine;
+          const cells = record as string[];
+          if (cells.every((c) => c.trim() === '')) continue;
+          batch.push({ line, cells });
+        }
+        if (batch.length > 0) yield batch;
+        else if (!(await readable(parser))) return;
       }
     } catch (err) {
       throw csvReadError(err, previousEnd + 1);
     }
   }
   return {
-    rows: rows(),
+    batches: batches(),
     sheet: () => null,
     delimiter,
     bytesRead: () => bytes,
@@ -146,6 +158,29 @@ function openCsv(file: string, knownDelimiter: string | null): RowSource {
       parser.destroy();
     },
   };
+}
+
+/** Waits until the stream has data again. @returns false at its end. @throws its error */
+function readable(stream: Parser): Promise<boolean> {
+  if (stream.errored) return Promise.reject(stream.errored);
+  if (stream.readableEnded || stream.destroyed) return Promise.resolve(false);
+  return new Promise((resolve, reject) => {
+    const done = (result: boolean | Error) => {
+      stream.off('readable', onReadable);
+      stream.off('end', onEnd);
+      stream.off('error', onError);
+      stream.off('close', onEnd);
+      if (result instanceof Error) reject(result);
+      else resolve(result);
+    };
+    const onReadable = () => done(true);
+    const onEnd = () => done(stream.errored ? (stream.errored as Error) : false);
+    const onError = (err: Error) => done(err);
+    stream.on('readable', onReadable);
+    stream.on('end', onEnd);
+    stream.on('error', onError);
+    stream.on('close', onEnd);
+  });
 }
 
 function notUtf8(offset: number): AppError {
@@ -188,8 +223,9 @@ function openXlsx(file: string, wantedSheet: string | null): RowSource {
   let chosen: string | null = null;
   const sheetNames = (): string[] => ((reader as unknown as { model?: { sheets?: Array<{ name: string }> } }).model?.sheets ?? []).map((s) => s.name);
 
-  async function* rows(): AsyncGenerator<TableRow, void, undefined> {
+  async function* batches(): AsyncGenerator<TableRow[], void, undefined> {
     let found = false;
+    let batch: TableRow[] = [];
     try {
       for await (const worksheet of reader) {
         const name = (worksheet as unknown as { name?: string }).name ?? null;
@@ -202,9 +238,14 @@ function openXlsx(file: string, wantedSheet: string | null): RowSource {
           const cells: Cell[] = [];
           for (let i = 1; i < values.length; i++) cells.push(fromExcelValue(values[i]));
           if (cells.every((c) => isBlank(c))) continue;
-          yield { line: row.number, cells };
+          batch.push({ line: row.number, cells });
+          if (batch.length >= BATCH_ROWS) {
+            yield batch;
+            batch = [];
+          }
         }
       }
+      if (batch.length > 0) yield batch;
     } catch (err) {
       if (err instanceof AppError) throw err;
       throw new AppError(
@@ -224,7 +265,7 @@ function openXlsx(file: string, wantedSheet: string | null): RowSource {
     }
   }
   return {
-    rows: rows(),
+    batches: batches(),
     sheet: () => chosen,
     delimiter: null,
     bytesRead: () => bytes,

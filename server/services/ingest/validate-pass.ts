@@ -4,10 +4,10 @@ import type { ErrorCode } from '@shared/errors';
 import type { EligibleSide } from '@shared/schemas/program';
 import { isEligible } from '@shared/domain/cutoff-schedule';
 import { cellPreview } from './cells';
-import { pseudonym } from './pseudonym';
-import { checkRow, type RowRules } from './row-checks';
+import { pseudonym, pseudonymKey } from './pseudonym';
+import { checkRow, RowValues, type RowRules } from './row-checks';
 import { SubjectIndex } from './subject-index';
-import type { OpenedTable } from './table-reader';
+import type { OpenedTable, TableRow } from './table-reader';
 
 export interface RejectedRow {
   line: number;
@@ -93,9 +93,12 @@ export async function runValidationPass(input: PassInput): Promise<PassResult> {
     tooManyRows: false,
   };
   const writer = new ChunkWriter(input.chunkPath, input.rowsPerChunk);
+  const key = pseudonymKey(input.pseudonymKey);
+  const values = new RowValues(rules);
   let lastProgress = 0;
 
-  const reject = async (line: number, code: ErrorCode, column: string | null, reason: string, value: string | null, quoted?: string) => {
+  /** Counts a rejected row; returns a promise only when a batch of kept rows must be saved. */
+  const reject = (line: number, code: ErrorCode, column: string | null, reason: string, value: string | null, quoted?: string) => {
     r.rowsRejected++;
     const key = `${code}\u0000${column ?? ''}`;
     let group = groups.get(key);
@@ -106,62 +109,68 @@ export async function runValidationPass(input: PassInput): Promise<PassResult> {
       r.rejectedKept++;
       rejectedBatch.push({ line, column, code, reason, value });
       if (rejectedBatch.length >= 1000) {
-        await input.saveRejected(rejectedBatch);
+        const batch = rejectedBatch;
         rejectedBatch = [];
+        return input.saveRejected(batch);
       }
     }
+    return undefined;
+  };
+
+  /** One row; returns a promise only when it must wait (a batch to save, a new cluster, a full buffer). */
+  const handle = (row: TableRow): Promise<void> | undefined => {
+    const bad = checkRow(rules, row.cells, values);
+    if (bad) return reject(row.line, bad.code, bad.column, bad.reason, bad.cell === null ? null : cellPreview(bad.cell), bad.quoted);
+    const checked = values;
+    const hash = pseudonym(key, 'subject', input.programId, checked.subject);
+    const firstLine = subjects.add(hash, row.line);
+    if (firstLine !== 0) {
+      if (!r.duplicates) r.duplicates = { count: 0, firstLine, repeatsLine: row.line };
+      r.duplicates.count++;
+      return reject(row.line, 'extract_duplicate_subject', rules.columns[rules.subjectId] ?? null, `The same subject already appears on line ${firstLine}.`, null);
+    }
+    r.rowsAccepted++;
+    if (isEligible(checked.score, input.cutoff, input.eligibleSide)) r.eligibleRows++;
+    else r.ineligibleRows++;
+    if (checked.takeUp !== null) {
+      r.takeUpRows++;
+      r.takeUpOnes += checked.takeUp;
+    }
+    if (checked.score < r.scoreMin) r.scoreMin = checked.score;
+    if (checked.score > r.scoreMax) r.scoreMax = checked.score;
+    let rest = '';
+    for (const v of checked.outcomes) rest += Number.isNaN(v) ? `\t${NULL}` : `\t${v}`;
+    for (let i = 0; i < checked.covariates.length; i++) {
+      if (rules.covariates[i]!.column === null) continue;
+      const v = checked.covariates[i]!;
+      rest += Number.isNaN(v) ? `\t${NULL}` : `\t${v}`;
+    }
+    const head = `${row.line}\t${hash.toString('hex')}\t${checked.score}\t${checked.takeUp ?? NULL}\t`;
+    if (checked.cluster === null) return writer.write(`${head}${NULL}${rest}\n`);
+    const clusterHash = pseudonym(key, 'cluster', input.programId, checked.cluster);
+    const known = clusterCodes.get(clusterHash.toString('hex'));
+    if (known !== undefined) return writer.write(`${head}${known}${rest}\n`);
+    return input.clusterCode(clusterHash).then((code) => {
+      clusterCodes.set(clusterHash.toString('hex'), code);
+      return writer.write(`${head}${code}${rest}\n`);
+    });
   };
 
   try {
-    for await (const row of table.rows) {
-      r.rowsRead++;
-      if (r.rowsRead > input.maxRows) {
-        r.tooManyRows = true;
-        break;
+    rows: for await (const batch of table.batches) {
+      const now = Date.now();
+      if (now - lastProgress > 250) {
+        lastProgress = now;
+        input.progress(table.bytesRead(), table.totalBytes);
       }
-      if ((r.rowsRead & 4095) === 0) {
-        const now = Date.now();
-        if (now - lastProgress > 250) {
-          lastProgress = now;
-          input.progress(table.bytesRead(), table.totalBytes);
+      for (const row of batch) {
+        if (++r.rowsRead > input.maxRows) {
+          r.tooManyRows = true;
+          break rows;
         }
+        const waiting = handle(row);
+        if (waiting) await waiting;
       }
-      const checked = checkRow(rules, row.cells);
-      if (!checked.ok) {
-        await reject(row.line, checked.code, checked.column, checked.reason, checked.cell === null ? null : cellPreview(checked.cell), checked.quoted);
-        continue;
-      }
-      const hash = pseudonym(input.pseudonymKey, 'subject', input.programId, checked.subject);
-      const firstLine = subjects.add(hash, row.line);
-      if (firstLine !== 0) {
-        if (!r.duplicates) r.duplicates = { count: 0, firstLine, repeatsLine: row.line };
-        r.duplicates.count++;
-        await reject(row.line, 'extract_duplicate_subject', rules.columns[rules.subjectId] ?? null, `The same subject already appears on line ${firstLine}.`, null);
-        continue;
-      }
-      let cluster: number | null = null;
-      if (checked.cluster !== null) {
-        const clusterHash = pseudonym(input.pseudonymKey, 'cluster', input.programId, checked.cluster);
-        const hex = clusterHash.toString('hex');
-        cluster = clusterCodes.get(hex) ?? null;
-        if (cluster === null) {
-          cluster = await input.clusterCode(clusterHash);
-          clusterCodes.set(hex, cluster);
-        }
-      }
-      r.rowsAccepted++;
-      if (isEligible(checked.score, input.cutoff, input.eligibleSide)) r.eligibleRows++;
-      else r.ineligibleRows++;
-      if (checked.takeUp !== null) {
-        r.takeUpRows++;
-        r.takeUpOnes += checked.takeUp;
-      }
-      if (checked.score < r.scoreMin) r.scoreMin = checked.score;
-      if (checked.score > r.scoreMax) r.scoreMax = checked.score;
-      let line = `${row.line}\t${hash.toString('hex')}\t${checked.score}\t${checked.takeUp ?? NULL}\t${cluster ?? NULL}`;
-      for (const v of checked.outcomes) line += Number.isNaN(v) ? `\t${NULL}` : `\t${v}`;
-      for (const [i, v] of checked.covariates.entries()) if (rules.covariates[i]!.column !== null) line += Number.isNaN(v) ? `\t${NULL}` : `\t${v}`;
-      await writer.write(`${line}\n`);
     }
     if (rejectedBatch.length > 0) await input.saveRejected(rejectedBatch);
     r.chunks = await writer.finish();
@@ -187,11 +196,16 @@ class ChunkWriter {
     private readonly rowsPerChunk: number,
   ) {}
 
-  async write(line: string): Promise<void> {
-    if (!this.stream || this.rowsInChunk >= this.rowsPerChunk) await this.next();
+  /** Adds a line; returns a promise only when the caller must wait (new chunk or back-pressure). */
+  write(line: string): Promise<void> | undefined {
+    if (!this.stream || this.rowsInChunk >= this.rowsPerChunk) return this.next().then(() => this.append(line));
+    return this.append(line);
+  }
+
+  private append(line: string): Promise<void> | undefined {
     this.buffer += line;
     this.rowsInChunk++;
-    if (this.buffer.length >= 256 * 1024) await this.flush();
+    return this.buffer.length >= 256 * 1024 ? this.flush() : undefined;
   }
 
   /** @returns the number of chunk files written. */
