@@ -20,7 +20,7 @@ import { receiveExtract } from '../services/extract-upload.service';
 import { findExtract } from '../services/extracts.service';
 import { headerColumns, headerFingerprint } from '../services/ingest/header';
 import { ingestWorker } from '../services/ingest/ingest-worker';
-import { incomingDir } from '../services/ingest/work-dir';
+import { ingestFiles } from '../services/ingest/work-dir';
 import { CASE_MANAGEMENT_HEADER, CASE_MANAGEMENT_MAPPING, CASE_MANAGEMENT_SOURCE, REGIONAL_OFFICE_PERIOD, writeCaseManagementCsv, writeRegionalOfficeWorkbook } from './demo-files';
 
 /**
@@ -52,7 +52,7 @@ export async function installDemoScenario(
   options.log?.(`Loading ${missing.length} monthly demo extract(s) through the ingest path…`);
   const worker = ingestWorker(deps);
   for (const period of missing) {
-    const file = path.join(incomingDir(config.varDir), `demo-${period}.csv`);
+    const file = path.join(ingestFiles(deps).incoming(), `demo-${period}.csv`);
     writeCaseManagementCsv(file, period);
     const { extract } = await receiveExtract(deps, programId, SYSTEM_ACTOR, { path: file, originalName: `case-management-${period}.csv` }, { period, sourceId, reviewMapping: false });
     await worker.idle();

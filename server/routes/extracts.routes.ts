@@ -19,7 +19,7 @@ import { AppError, badRequest } from '../lib/errors';
 import { acceptExtract, rejectExtract, restoreExtract, retryExtract, setExtractMapping } from '../services/extract-decisions.service';
 import { receiveExtract } from '../services/extract-upload.service';
 import { findExtract, getExtractDetail, listExtracts, listRejectedRows, writeRejectedCsv } from '../services/extracts.service';
-import { incomingDir } from '../services/ingest/work-dir';
+import { ingestFiles } from '../services/ingest/work-dir';
 import type { AppContext } from '../app-context';
 
 /** Largest upload, in bytes (512 MiB; extracts of 2 million rows are about 100–200 MB). */
@@ -58,7 +58,7 @@ export function extractRoutes(ctx: AppContext): Router {
 
   router.get(`${base}/:extractId`, allow(readers), async (req, res) => {
     const { programId, extractId } = ids(req.params);
-    res.json(await getExtractDetail(ctx.dataSource, ctx.config.varDir, programId, extractId));
+    res.json(await getExtractDetail(ctx, programId, extractId));
   });
 
   router.get(`${base}/:extractId/rejected-rows`, allow(analysts), async (req, res) => {
@@ -114,7 +114,7 @@ export function extractRoutes(ctx: AppContext): Router {
 function uploadOne(ctx: AppContext): RequestHandler {
   const upload = multer({
     storage: multer.diskStorage({
-      destination: (_req, _file, cb) => cb(null, incomingDir(ctx.config.varDir)),
+      destination: (_req, _file, cb) => cb(null, ingestFiles(ctx).incoming()),
       filename: (_req, _file, cb) => cb(null, `${Date.now()}-${randomBytes(8).toString('hex')}.part`),
     }),
     limits: { fileSize: MAX_UPLOAD_BYTES, files: 1, fields: 10, fieldSize: 10_000 },

@@ -12,9 +12,9 @@ import { ingestWorker } from './ingest/ingest-worker';
 import { buildRowRules } from './ingest/mapping-rules';
 import { programFacts } from './ingest/program-facts';
 import type { IngestDeps } from './ingest/validate-extract';
-import { removeCleanChunks, removeExtractDir, removeUpload, uploadPath } from './ingest/work-dir';
+import { ingestFiles } from './ingest/work-dir';
 
-const detail = (deps: IngestDeps, programId: number, id: number) => getExtractDetail(deps.dataSource, deps.config.varDir, programId, id);
+const detail = (deps: IngestDeps, programId: number, id: number) => getExtractDetail(deps, programId, id);
 
 /**
  * Sets the column mapping of an uploaded extract (or changes it after a report) and starts
@@ -33,7 +33,7 @@ export async function setExtractMapping(
   if (extract.status !== 'uploaded' && extract.status !== 'awaiting-decision') {
     throw stateConflict(extract, 'change its column mapping');
   }
-  if (!fs.existsSync(uploadPath(deps.config.varDir, extract.id, extract.format))) {
+  if (!fs.existsSync(ingestFiles(deps).upload(extract.id, extract.format))) {
     throw new AppError('extract_state_conflict', 'The uploaded file is no longer kept, so the mapping cannot change. Upload the file again.');
   }
   const program = await programFacts(ds.manager, programId);
@@ -86,7 +86,7 @@ export async function acceptExtract(deps: IngestDeps, programId: number, extract
     { status: 'loading', attempts: 0, decidedAt: new Date(), decidedByUserId: actor.userId, decidedByLabel: actor.label, decisionNote: note ?? null },
   );
   if (result.affected !== 1) throw stateConflict(await findExtract(ds, programId, extractId), 'accept it');
-  removeUpload(deps.config.varDir, extract.id);
+  ingestFiles(deps).removeUpload(extract.id);
   ingestWorker(deps).enqueue(extract.id);
   return detail(deps, programId, extract.id);
 }
@@ -115,7 +115,7 @@ export async function rejectExtract(deps: IngestDeps, programId: number, extract
       details: { period: extract.period, sha256: extract.sha256, problem: extract.problemCode, rowsRejected: extract.rowsRejected },
     });
   });
-  removeExtractDir(deps.config.varDir, extract.id);
+  ingestFiles(deps).removeExtract(extract.id);
   return detail(deps, programId, extract.id);
 }
 
@@ -161,7 +161,7 @@ export async function retryExtract(deps: IngestDeps, programId: number, extractI
   const next = extract.decidedAt ? 'loading' : 'validating';
   if (next === 'validating') {
     await ds.getRepository(ExtractRejectedRow).delete({ extractId });
-    removeCleanChunks(deps.config.varDir, extractId);
+    ingestFiles(deps).removeChunks(extractId);
   }
   const result = await ds.getRepository(Extract).update({ id: extract.id, status: 'failed' }, { status: next, attempts: 0, problemCode: null, problemMessage: null });
   if (result.affected !== 1) throw stateConflict(extract, 'retry it');

@@ -17,7 +17,7 @@ import { buildRowRules } from './ingest/mapping-rules';
 import { cutoffOrThrow, programFacts } from './ingest/program-facts';
 import { openTable } from './ingest/table-reader';
 import type { IngestDeps } from './ingest/validate-extract';
-import { extractDir, uploadPath } from './ingest/work-dir';
+import { ingestFiles } from './ingest/work-dir';
 
 export interface ReceivedFile {
   /** Where the upload landed on disk (under var/ingest/incoming). */
@@ -50,7 +50,7 @@ export async function receiveExtract(
     const byteSize = fs.statSync(file.path).size;
 
     const previous = await ds.getRepository(Extract).findOne({ where: { programId, sha256, status: Not('rejected') }, order: { id: 'DESC' } });
-    if (previous) return { extract: await getExtractDetail(ds, deps.config.varDir, programId, previous.id), duplicate: true };
+    if (previous) return { extract: await getExtractDetail(deps, programId, previous.id), duplicate: true };
 
     const table = await openTable(file.path, format, { sheet: fields.sheet ?? null });
     await table.close();
@@ -97,11 +97,12 @@ export async function receiveExtract(
       });
       return created;
     });
-    fs.mkdirSync(extractDir(deps.config.varDir, extract.id), { recursive: true, mode: 0o700 });
-    fs.renameSync(file.path, uploadPath(deps.config.varDir, extract.id, format));
+    const files = ingestFiles(deps);
+    fs.mkdirSync(files.extractDir(extract.id), { recursive: true, mode: 0o700 });
+    fs.renameSync(file.path, files.upload(extract.id, format));
     if (mapping) ingestWorker(deps).enqueue(extract.id);
     deps.logger.info({ extractId: extract.id, programId, byteSize, format, mappedAutomatically: mapping !== null }, 'extract uploaded');
-    return { extract: await getExtractDetail(ds, deps.config.varDir, programId, extract.id), duplicate: false };
+    return { extract: await getExtractDetail(deps, programId, extract.id), duplicate: false };
   } finally {
     fs.rmSync(file.path, { force: true });
   }

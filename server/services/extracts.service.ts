@@ -12,7 +12,8 @@ import type { ExtractSource } from '../entities/extract-source.entity';
 import { SavedMapping } from '../entities/saved-mapping.entity';
 import { notFound } from '../lib/errors';
 import { programFacts } from './ingest/program-facts';
-import { uploadPath } from './ingest/work-dir';
+import type { IngestDeps } from './ingest/validate-extract';
+import { ingestFiles } from './ingest/work-dir';
 
 /** An extract of the program. @throws not_found (also when it belongs to another program) */
 export async function findExtract(ds: DataSource, programId: number, extractId: number): Promise<Extract> {
@@ -35,13 +36,14 @@ export async function listExtracts(ds: DataSource, programId: number, query: Ext
 }
 
 /** The extract with its report and what the analyst may do next. */
-export async function getExtractDetail(ds: DataSource, varDir: string, programId: number, extractId: number): Promise<ExtractDetailDto> {
+export async function getExtractDetail(deps: IngestDeps, programId: number, extractId: number): Promise<ExtractDetailDto> {
+  const ds = deps.dataSource;
   const extract = await findExtract(ds, programId, extractId);
   const replaces =
     extract.status === 'accepted' || extract.status === 'superseded'
       ? null
       : await ds.getRepository(Extract).findOneBy({ programId, period: extract.period, status: 'accepted' });
-  const uploadKept = fs.existsSync(uploadPath(varDir, extract.id, extract.format));
+  const uploadKept = fs.existsSync(ingestFiles(deps).upload(extract.id, extract.format));
   return {
     ...toSummaryDto(extract),
     sheet: extract.sheet,

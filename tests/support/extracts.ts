@@ -73,3 +73,4 @@ export async function visibleState(ds: DataSource): Promise<unknown> {
   const stages = await ds.query("SELECT table_name FROM information_schema.tables WHERE table_schema = DATABASE() AND table_name LIKE 'observation\\_stage\\_%'");
   return { observations: { n: Number(observations.n), crc: String(observations.crc) }, extracts, cohorts, stages };
 }
+

@@ -1,4 +1,6 @@
 import { randomBytes } from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
 import mysql from 'mysql2/promise';
 import type { DataSource } from 'typeorm';
 import { loadConfig, type Config } from '@server/config/env';
@@ -20,8 +22,8 @@ export function testConfig(): Config {
 }
 
 /**
- * A fresh, migrated database of its own for one test file, so files can run in parallel.
- * Drop it in `afterAll`.
+ * A fresh, migrated database of its own for one test file, with a runtime folder of its own
+ * (uploads, work files), so files can run in parallel. Drop it in `afterAll`.
  */
 export async function createTestDatabase(): Promise<TestDatabase> {
   const base = testConfig();
@@ -29,7 +31,8 @@ export async function createTestDatabase(): Promise<TestDatabase> {
   const admin = await mysql.createConnection({ host: base.db.host, port: base.db.port, user: base.db.user, password: base.db.password });
   await admin.query(`CREATE DATABASE \`${name}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
   await admin.end();
-  const config: Config = { ...base, db: { ...base.db, database: name } };
+  const config: Config = { ...base, varDir: path.join(base.varDir, 'databases', name), db: { ...base.db, database: name } };
+  fs.mkdirSync(config.varDir, { recursive: true });
   const dataSource = createDataSource(config.db);
   await dataSource.initialize();
   await dataSource.runMigrations({ transaction: 'each' });
@@ -39,6 +42,7 @@ export async function createTestDatabase(): Promise<TestDatabase> {
     drop: async () => {
       await dataSource.query(`DROP DATABASE \`${name}\``);
       await dataSource.destroy();
+      fs.rmSync(config.varDir, { recursive: true, force: true });
     },
   };
 }

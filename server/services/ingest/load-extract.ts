@@ -5,7 +5,7 @@ import { Extract, type ObservationSlots } from '../../entities/extract.entity';
 import { AppError } from '../../lib/errors';
 import { recordAudit, type AuditActor } from '../audit.service';
 import type { IngestDeps } from './validate-extract';
-import { ingestRoot, listCleanChunks, removeExtractDir } from './work-dir';
+import { ingestFiles } from './work-dir';
 
 /** The staging table of one extract: same columns and key as `observation`, dropped after the swap. */
 export function stageTable(extractId: number): string {
@@ -24,7 +24,8 @@ export async function loadExtract(deps: IngestDeps, extractId: number): Promise<
   const repo = ds.getRepository(Extract);
   const extract = await repo.findOneByOrFail({ id: extractId });
   if (extract.status !== 'loading') return;
-  const chunks = listCleanChunks(deps.config.varDir, extractId);
+  const files = ingestFiles(deps);
+  const chunks = files.chunks(extractId);
   const expected = extract.rowsAccepted ?? 0;
   if (chunks.length === 0 && expected > 0) {
     throw new AppError('extract_processing_failed', 'The checked rows of this extract are no longer on the server. Upload the file again.');
@@ -43,7 +44,7 @@ export async function loadExtract(deps: IngestDeps, extractId: number): Promise<
       `LOAD DATA LOCAL INFILE ? INTO TABLE \`${stage}\` CHARACTER SET utf8mb4 FIELDS TERMINATED BY '\\t' LINES TERMINATED BY '\\n' ` +
       `(${loadColumns(slots).join(', ')}) SET extract_id = ${Number(extractId)}, subject_hash = UNHEX(@subject_hash)`;
     for (const chunk of chunks) {
-      loaded += await loadDataLocalInfile(conn, sql, chunk, ingestRoot(deps.config.varDir));
+      loaded += await loadDataLocalInfile(conn, sql, chunk, files.root);
       await repo.update({ id: extractId }, { progress: { phase: 'loading', done: loaded, total: expected, unit: 'rows' } });
     }
     if (loaded !== expected) {
@@ -57,7 +58,7 @@ export async function loadExtract(deps: IngestDeps, extractId: number): Promise<
     release().catch(() => undefined);
   }
   await ds.query(`DROP TABLE IF EXISTS \`${stage}\``);
-  removeExtractDir(deps.config.varDir, extractId);
+  files.removeExtract(extractId);
 }
 
 /** Columns of a clean chunk line, in the order the validation pass writes them. */

@@ -12,7 +12,7 @@ import { cutoffOrThrow, programFacts } from './program-facts';
 import { openTable } from './table-reader';
 import { runValidationPass, type RejectedRow } from './validate-pass';
 import { judge } from './verdict';
-import { cleanChunkPath, removeCleanChunks, uploadPath } from './work-dir';
+import { ingestFiles } from './work-dir';
 
 export interface IngestDeps {
   dataSource: DataSource;
@@ -39,10 +39,11 @@ export async function validateExtract(deps: IngestDeps, extractId: number): Prom
   const extract = await repo.findOneByOrFail({ id: extractId });
   if (extract.status !== 'validating' || !extract.mapping) return;
   await ds.getRepository(ExtractRejectedRow).delete({ extractId });
-  removeCleanChunks(deps.config.varDir, extractId);
+  const files = ingestFiles(deps);
+  files.removeChunks(extractId);
 
   const program = await programFacts(ds.manager, extract.programId);
-  const file = uploadPath(deps.config.varDir, extractId, extract.format);
+  const file = files.upload(extractId, extract.format);
   if (!fs.existsSync(file)) {
     throw new AppError('extract_processing_failed', 'The uploaded file is no longer on the server, so it cannot be checked. Upload it again.');
   }
@@ -63,7 +64,7 @@ export async function validateExtract(deps: IngestDeps, extractId: number): Prom
       cutoff,
       eligibleSide: program.eligibleSide,
       pseudonymKey: deps.config.secrets.pseudonymKey,
-      chunkPath: (n) => cleanChunkPath(deps.config.varDir, extractId, n),
+      chunkPath: (n) => files.chunk(extractId, n),
       rowsPerChunk: INGEST_LIMITS.rowsPerChunk,
       maxRows: INGEST_LIMITS.maxRows,
       keepRejected: INGEST_LIMITS.keepRejected,
@@ -91,7 +92,7 @@ export async function validateExtract(deps: IngestDeps, extractId: number): Prom
     // Problems of the file or the mapping end the check with a report the analyst can act on.
     if (!(err instanceof AppError) || err.code === 'extract_processing_failed') throw err;
     await progressWrite;
-    removeCleanChunks(deps.config.varDir, extractId);
+    files.removeChunks(extractId);
     await finish(ds, extractId, { code: err.code, message: err.message }, {});
     deps.logger.info({ extractId, problem: err.code }, 'extract validated with a whole-file problem');
   }
