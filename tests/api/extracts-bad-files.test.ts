@@ -1,5 +1,4 @@
 import fs from 'node:fs';
-import request from 'supertest';
 import { ingestFiles } from '@server/services/ingest/work-dir';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ExtractDetailDto } from '@shared/api/extracts';
@@ -10,6 +9,7 @@ import { createTestProgram } from '../fixtures/test-program';
 import { acceptAndSettle, postExtract, settledExtract, uploadExtract, visibleState } from '../support/extracts';
 import { buildTestApp } from '../support/test-app';
 import { createTestDatabase, type TestDatabase } from '../support/test-database';
+import { signIn, type SignedInAgent } from '../support/sign-in';
 
 /**
  * The bad-file catalogue (tests/fixtures/bad-extract-files.ts): every file stops at the stage it
@@ -18,7 +18,7 @@ import { createTestDatabase, type TestDatabase } from '../support/test-database'
  */
 describe('bad extract files', () => {
   let db: TestDatabase;
-  let app: ReturnType<typeof buildTestApp>['app'];
+  let app: SignedInAgent;
   let programId: number;
   let sourceId: number;
   let dir: string;
@@ -26,13 +26,13 @@ describe('bad extract files', () => {
 
   beforeAll(async () => {
     db = await createTestDatabase();
-    app = buildTestApp(db).app;
     programId = await createTestProgram(db.dataSource);
+    app = await signIn(buildTestApp(db), { role: 'analyst', programId });
     dir = fixtureDir();
     incoming = ingestFiles(db).incoming();
     // A good extract already accepted for the month, and its mapping saved: the bad files must not touch it.
     const first = await uploadExtract(app, { programId, content: toCsv(goodRows(300, '2025-04', 99)) });
-    const mapped = await request(app)
+    const mapped = await app
       .put(`/api/programs/${programId}/extracts/${first.extract.id}/mapping`)
       .send({ newSourceName: 'Case system', mapping: TEST_MAPPING })
       .expect(200);
@@ -69,7 +69,7 @@ describe('bad extract files', () => {
         const id: number = upload.body.extract.id;
         let extract = await settledExtract(app, programId, id);
         if (bad.mapping || extract.status === 'uploaded') {
-          const mapped = await request(app)
+          const mapped = await app
             .put(`/api/programs/${programId}/extracts/${id}/mapping`)
             .send({ sourceId, mapping: bad.mapping ?? TEST_MAPPING, save: false });
           if (bad.stage === 'mapping') {
@@ -88,13 +88,13 @@ describe('bad extract files', () => {
           expect(extract.problem?.code).toBe(bad.code);
           expect(extract.problem?.message).toMatch(bad.message);
           expect(extract.canAccept).toBe(false);
-          const accept = await request(app).post(`/api/programs/${programId}/extracts/${id}/accept`).send({});
+          const accept = await app.post(`/api/programs/${programId}/extracts/${id}/accept`).send({});
           expect(accept.status).toBe(409);
           expect(accept.body.error).toMatchObject({ code: 'extract_state_conflict', message: expect.stringContaining('cannot be accepted') });
         }
-        const rejected = await request(app).post(`/api/programs/${programId}/extracts/${id}/reject`).send({ reason: 'bad file' }).expect(200);
+        const rejected = await app.post(`/api/programs/${programId}/extracts/${id}/reject`).send({ reason: 'bad file' }).expect(200);
         expect((rejected.body as ExtractDetailDto).status).toBe('rejected');
-        expect(fs.existsSync(ingestFiles(db).extractDir(id))).toBe(false);
+        expect(fs.existsSync(ingestFiles(db).extractDir(id))).toBe(false); // rejecting deletes the upload at once
       }
       expect(await visibleState(db.dataSource)).toEqual(before);
     });

@@ -1,19 +1,21 @@
 import { createHmac } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
-import request from 'supertest';
+import { ingestWorker } from '@server/services/ingest/ingest-worker';
 import { ingestFiles } from '@server/services/ingest/work-dir';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { loadObservations } from '@server/services/observations.service';
 import { goodRows, TEST_MAPPING, toCsv } from '../fixtures/extract-files';
 import { createTestProgram } from '../fixtures/test-program';
 import { acceptAndSettle, mapExtract, settledExtract, uploadExtract, visibleState } from '../support/extracts';
-import { buildTestApp } from '../support/test-app';
+import { buildTestApp, type TestApp } from '../support/test-app';
 import { createTestDatabase, type TestDatabase } from '../support/test-database';
+import { signIn, type SignedInAgent } from '../support/sign-in';
 
 describe('extracts: duplicates, supersede, restore, pseudonymisation', () => {
   let db: TestDatabase;
-  let app: ReturnType<typeof buildTestApp>['app'];
+  let app: SignedInAgent;
+  let t: TestApp;
   let programId: number;
   const april = goodRows(120, '2025-04', 51);
   const corrected = goodRows(140, '2025-04', 52);
@@ -22,8 +24,9 @@ describe('extracts: duplicates, supersede, restore, pseudonymisation', () => {
 
   beforeAll(async () => {
     db = await createTestDatabase();
-    app = buildTestApp(db).app;
     programId = await createTestProgram(db.dataSource);
+    t = buildTestApp(db);
+    app = await signIn(t, { role: 'analyst', programId });
     const up = await uploadExtract(app, { programId, content: toCsv(april) });
     await mapExtract(app, programId, up.extract.id, TEST_MAPPING);
     await acceptAndSettle(app, programId, up.extract.id);
@@ -36,12 +39,12 @@ describe('extracts: duplicates, supersede, restore, pseudonymisation', () => {
   it('recognises the same file uploaded again and stores nothing new', async () => {
     const before = await visibleState(db.dataSource);
     const [{ n }] = await db.dataSource.query('SELECT COUNT(*) AS n FROM extract');
-    const again = await request(app).post(`/api/programs/${programId}/extracts`).field('period', '2025-04').attach('file', Buffer.from(toCsv(april)), 'again.csv').expect(200);
+    const again = await app.post(`/api/programs/${programId}/extracts`).field('period', '2025-04').attach('file', Buffer.from(toCsv(april)), 'again.csv').expect(200);
     expect(again.body).toMatchObject({ duplicate: true, extract: { id: firstId, status: 'accepted' } });
     expect(await db.dataSource.query('SELECT COUNT(*) AS n FROM extract')).toEqual([{ n }]);
     expect(await visibleState(db.dataSource)).toEqual(before);
     // Accepting again is harmless too.
-    await request(app).post(`/api/programs/${programId}/extracts/${firstId}/accept`).send({}).expect(200);
+    await app.post(`/api/programs/${programId}/extracts/${firstId}/accept`).send({}).expect(200);
     expect(await visibleState(db.dataSource)).toEqual(before);
   });
 
@@ -55,24 +58,24 @@ describe('extracts: duplicates, supersede, restore, pseudonymisation', () => {
     const data = await loadObservations(db.dataSource, programId, ['2025-04']);
     expect(data.n).toBe(140);
     expect(Array.from(data.score)).toEqual(corrected.map((r) => r.score));
-    const old = await request(app).get(`/api/programs/${programId}/extracts/${firstId}`).expect(200);
+    const old = await app.get(`/api/programs/${programId}/extracts/${firstId}`).expect(200);
     expect(old.body).toMatchObject({ status: 'superseded', supersededById: secondId, rowsAccepted: 120, sha256: expect.stringMatching(/^[0-9a-f]{64}$/) });
     const [{ n }] = await db.dataSource.query('SELECT COUNT(*) AS n FROM observation');
     expect(Number(n)).toBe(260);
   });
 
   it('restores the earlier extract and back again, each in one step', async () => {
-    await request(app).post(`/api/programs/${programId}/extracts/${firstId}/restore`).send({}).expect(200);
+    await app.post(`/api/programs/${programId}/extracts/${firstId}/restore`).send({}).expect(200);
     let data = await loadObservations(db.dataSource, programId, ['2025-04']);
     expect(Array.from(data.score)).toEqual(april.map((r) => r.score));
     expect(data.cohorts[0]!.extractId).toBe(firstId);
-    const second = await request(app).get(`/api/programs/${programId}/extracts/${secondId}`).expect(200);
+    const second = await app.get(`/api/programs/${programId}/extracts/${secondId}`).expect(200);
     expect(second.body).toMatchObject({ status: 'superseded', supersededById: firstId });
 
-    await request(app).post(`/api/programs/${programId}/extracts/${secondId}/restore`).send({}).expect(200);
+    await app.post(`/api/programs/${programId}/extracts/${secondId}/restore`).send({}).expect(200);
     data = await loadObservations(db.dataSource, programId, ['2025-04']);
     expect(data.n).toBe(140);
-    const conflict = await request(app).post(`/api/programs/${programId}/extracts/${secondId}/restore`).send({}).expect(409);
+    const conflict = await app.post(`/api/programs/${programId}/extracts/${secondId}/restore`).send({}).expect(409);
     expect(conflict.body.error.code).toBe('extract_state_conflict');
   });
 
@@ -110,7 +113,8 @@ describe('extracts: duplicates, supersede, restore, pseudonymisation', () => {
       const dump = JSON.stringify(await db.dataSource.query(`SELECT * FROM \`${name}\``));
       for (const id of raw) expect(dump.includes(id), `${id} found in ${name}`).toBe(false);
     }
-    // Nor on disk once accepted.
+    // Nor on disk once accepted and tidied up.
+    await ingestWorker(t.ctx).idle();
     const root = ingestFiles(db).root;
     expect(fs.readdirSync(root).filter((f) => f !== 'incoming')).toEqual([]);
     expect(fs.readdirSync(path.join(root, 'incoming'))).toEqual([]);

@@ -1,22 +1,28 @@
 import fs from 'node:fs';
 import path from 'node:path';
-import request from 'supertest';
+import { ingestWorker } from '@server/services/ingest/ingest-worker';
 import { ingestFiles } from '@server/services/ingest/work-dir';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { loadObservations } from '@server/services/observations.service';
 import { fixtureDir, goodRows, TEST_HEADER, TEST_MAPPING, toCsv, writeXlsx } from '../fixtures/extract-files';
 import { createTestProgram } from '../fixtures/test-program';
 import { acceptAndSettle, mapExtract, settledExtract, uploadExtract } from '../support/extracts';
-import { buildTestApp } from '../support/test-app';
+import { buildTestApp, type TestApp } from '../support/test-app';
 import { createTestDatabase, type TestDatabase } from '../support/test-database';
+import { signIn, type SignedInAgent } from '../support/sign-in';
 
 describe('extracts: formats, mapping, report, accept', () => {
   let db: TestDatabase;
-  let app: ReturnType<typeof buildTestApp>['app'];
+  let app: SignedInAgent;
+  let admin: SignedInAgent;
   let dir: string;
+  let t: TestApp;
   beforeAll(async () => {
     db = await createTestDatabase();
-    app = buildTestApp(db).app;
+    t = buildTestApp(db);
+    // Programs are made per test, so the analyst's grant is agency-wide.
+    app = await signIn(t, { role: 'analyst', displayName: 'Ana Lyst' });
+    admin = await signIn(t, { role: 'admin' });
     dir = fixtureDir();
   });
   afterAll(async () => {
@@ -39,7 +45,9 @@ describe('extracts: formats, mapping, report, accept', () => {
     expect(report.report!.takeUpShare).toBeCloseTo(rows.filter((r) => r.took_part === 1).length / 500, 12);
 
     const accepted = await acceptAndSettle(app, programId, up.extract.id);
-    expect(accepted).toMatchObject({ status: 'accepted', decided: { by: 'anonymous' }, canAccept: false, canRemap: false });
+    expect(accepted).toMatchObject({ status: 'accepted', decided: { by: 'Ana Lyst' }, canAccept: false, canRemap: false });
+    // The work files go once the load has committed and the worker has tidied up.
+    await ingestWorker(t.ctx).idle();
     expect(fs.existsSync(ingestFiles(db).extractDir(up.extract.id))).toBe(false);
 
     const data = await loadObservations(db.dataSource, programId, ['2025-04']);
@@ -59,7 +67,7 @@ describe('extracts: formats, mapping, report, accept', () => {
     expect(new Set(codeOf.values()).size).toBe(3);
     expect(data.cohorts).toEqual([{ period: '2025-04', extractId: up.extract.id, sha256: up.extract.sha256, offset: 0, length: 500, cutoff: 50 }]);
 
-    const list = await request(app).get(`/api/programs/${programId}/extracts`).expect(200);
+    const list = await app.get(`/api/programs/${programId}/extracts`).expect(200);
     expect(list.body).toMatchObject({ total: 1, page: 1, items: [{ id: up.extract.id, status: 'accepted', rowsAccepted: 500 }] });
     const cohorts = await db.dataSource.query('SELECT period FROM cohort WHERE program_id = ?', [programId]);
     expect(cohorts).toEqual([{ period: '2025-04' }]);
@@ -121,11 +129,11 @@ describe('extracts: formats, mapping, report, accept', () => {
       ]),
     );
 
-    const page = await request(app).get(`/api/programs/${programId}/extracts/${up.extract.id}/rejected-rows?pageSize=2`).expect(200);
+    const page = await app.get(`/api/programs/${programId}/extracts/${up.extract.id}/rejected-rows?pageSize=2`).expect(200);
     expect(page.body).toMatchObject({ total: 3, pageSize: 2 });
     expect(page.body.items[0]).toEqual({ line: 12, column: 'score', code: 'extract_value_not_numeric', reason: "'score' is not a number.", value: 'n/a' });
 
-    const csv = await request(app).get(`/api/programs/${programId}/extracts/${up.extract.id}/rejected.csv`).expect(200);
+    const csv = await app.get(`/api/programs/${programId}/extracts/${up.extract.id}/rejected.csv`).expect(200);
     expect(csv.headers['content-type']).toMatch(/^text\/csv/);
     expect(csv.headers['content-disposition']).toContain('rejected.csv');
     expect(csv.text.split('\r\n')).toEqual([
@@ -169,7 +177,7 @@ describe('extracts: formats, mapping, report, accept', () => {
     // The source's last mapping still fills the columns that exist; the guess fills the rest.
     expect(third.extract.suggestedMapping).toMatchObject({ subjectId: 'case_id', takeUp: 'took_part', takeUpValues: { yes: ['1', 'yes'] }, cluster: 'region' });
 
-    const sources = await request(app).get(`/api/programs/${programId}/data-sources`).expect(200);
+    const sources = await app.get(`/api/programs/${programId}/data-sources`).expect(200);
     expect(sources.body).toEqual([expect.objectContaining({ id: sourceId, name: 'County export', mappings: [expect.objectContaining({ headerFingerprint: first.extract.headerFingerprint })] })]);
   });
 
@@ -183,11 +191,11 @@ describe('extracts: formats, mapping, report, accept', () => {
     const loose = await mapExtract(app, programId, up.extract.id, { ...TEST_MAPPING, takeUpValues: { yes: ['1', 'y'], no: ['0'] } }, { sourceId: strict.source!.id });
     expect(loose).toMatchObject({ problem: null, canAccept: true, report: { rowsRejected: 0 } });
 
-    await request(app).put(`/api/programs/${programId}/ingest-settings`).send({ maxRejectedShare: 0.1, retentionMonths: 24 }).expect(200);
-    expect((await request(app).get(`/api/programs/${programId}/ingest-settings`).expect(200)).body).toEqual({ maxRejectedShare: 0.1, retentionMonths: 24 });
+    await admin.put(`/api/programs/${programId}/ingest-settings`).send({ maxRejectedShare: 0.1, retentionMonths: 24 }).expect(200);
+    expect((await app.get(`/api/programs/${programId}/ingest-settings`).expect(200)).body).toEqual({ maxRejectedShare: 0.1, retentionMonths: 24 });
     const again = await mapExtract(app, programId, up.extract.id, TEST_MAPPING, { sourceId: strict.source!.id });
     expect(again).toMatchObject({ problem: null, canAccept: true, report: { rowsRejected: 5, maxRejectedShare: 0.1 } });
-    const bad = await request(app).put(`/api/programs/${programId}/ingest-settings`).send({ maxRejectedShare: 0.9, retentionMonths: 24 }).expect(400);
+    const bad = await admin.put(`/api/programs/${programId}/ingest-settings`).send({ maxRejectedShare: 0.9, retentionMonths: 24 }).expect(400);
     expect(bad.body.error.code).toBe('validation_failed');
   });
 
@@ -214,21 +222,21 @@ describe('extracts: formats, mapping, report, accept', () => {
   it('answers wrong states, unknown ids and bad bodies in plain words', async () => {
     const programId = await createTestProgram(db.dataSource);
     const up = await uploadExtract(app, { programId, content: toCsv(goodRows(20, '2025-04', 41)) });
-    const early = await request(app).post(`/api/programs/${programId}/extracts/${up.extract.id}/accept`).send({}).expect(409);
+    const early = await app.post(`/api/programs/${programId}/extracts/${up.extract.id}/accept`).send({}).expect(409);
     expect(early.body.error).toEqual({ code: 'extract_state_conflict', message: expect.stringContaining('still needs its column mapping'), details: { status: 'uploaded' } });
-    await request(app).post(`/api/programs/${programId}/extracts/${up.extract.id}/restore`).send({}).expect(409);
-    await request(app).get(`/api/programs/${programId}/extracts/999999`).expect(404);
+    await app.post(`/api/programs/${programId}/extracts/${up.extract.id}/restore`).send({}).expect(409);
+    await app.get(`/api/programs/${programId}/extracts/999999`).expect(404);
     const other = await createTestProgram(db.dataSource);
-    await request(app).get(`/api/programs/${other}/extracts/${up.extract.id}`).expect(404);
-    const noFile = await request(app).post(`/api/programs/${programId}/extracts`).field('period', '2025-04').expect(400);
+    await app.get(`/api/programs/${other}/extracts/${up.extract.id}`).expect(404);
+    const noFile = await app.post(`/api/programs/${programId}/extracts`).field('period', '2025-04').expect(400);
     expect(noFile.body.error.message).toMatch(/Choose a file/);
-    const badPeriod = await request(app).post(`/api/programs/${programId}/extracts`).field('period', 'April').attach('file', Buffer.from('a,b\n1,2\n'), 'x.csv').expect(400);
+    const badPeriod = await app.post(`/api/programs/${programId}/extracts`).field('period', 'April').attach('file', Buffer.from('a,b\n1,2\n'), 'x.csv').expect(400);
     expect(badPeriod.body.error).toMatchObject({ code: 'validation_failed', message: expect.stringContaining('YYYY-MM') });
-    const noSource = await request(app).put(`/api/programs/${programId}/extracts/${up.extract.id}/mapping`).send({ mapping: TEST_MAPPING }).expect(400);
+    const noSource = await app.put(`/api/programs/${programId}/extracts/${up.extract.id}/mapping`).send({ mapping: TEST_MAPPING }).expect(400);
     expect(noSource.body.error.message).toMatch(/Choose a data source/);
-    await request(app).post(`/api/programs/${programId}/extracts/${up.extract.id}/reject`).send({}).expect(200);
-    await request(app).post(`/api/programs/${programId}/extracts/${up.extract.id}/reject`).send({}).expect(200);
-    const late = await request(app).put(`/api/programs/${programId}/extracts/${up.extract.id}/mapping`).send({ newSourceName: 'X', mapping: TEST_MAPPING }).expect(409);
+    await app.post(`/api/programs/${programId}/extracts/${up.extract.id}/reject`).send({}).expect(200);
+    await app.post(`/api/programs/${programId}/extracts/${up.extract.id}/reject`).send({}).expect(200);
+    const late = await app.put(`/api/programs/${programId}/extracts/${up.extract.id}/mapping`).send({ newSourceName: 'X', mapping: TEST_MAPPING }).expect(409);
     expect(late.body.error.message).toMatch(/was rejected/);
     expect(fs.readdirSync(ingestFiles(db).incoming())).toEqual([]);
   });

@@ -10,6 +10,7 @@ import type { ExtractDetailDto, ExtractUploadResultDto } from '@shared/api/extra
 import { createRng } from '@shared/random/rng';
 import { createTestProgram } from '../fixtures/test-program';
 import { startServerProcess } from '../support/server-process';
+import { signIn, type SignedInAgent } from '../support/sign-in';
 import { testEnvironment } from '../support/test-env';
 
 /**
@@ -25,7 +26,7 @@ const say = (line: string) => console.log(`[bench] ${line}`);
 
 async function main(): Promise<void> {
   const base = Number(process.env.CUTLINE_PORT_BASE ?? 4600);
-  Object.assign(process.env, testEnvironment(), { CUTLINE_DB_PORT: String(base + 14), CUTLINE_DB_NAME: 'cutline_bench', CUTLINE_VAR_DIR: BENCH_DIR, NODE_ENV: 'production' });
+  Object.assign(process.env, testEnvironment(), { CUTLINE_DB_PORT: String(base + 14), CUTLINE_DB_NAME: 'cutline_bench', CUTLINE_VAR_DIR: BENCH_DIR });
   PrivateMariaDb.ensureInstalled();
   const db = new PrivateMariaDb({ baseDir: path.join(BENCH_DIR, 'mariadb'), port: base + 14 });
   await db.destroy();
@@ -37,7 +38,6 @@ async function main(): Promise<void> {
     await ds.initialize();
     await ds.runMigrations({ transaction: 'each' });
     const programId = await createTestProgram(ds, 'bench');
-    await ds.destroy();
 
     const csv = path.join(BENCH_DIR, 'bench-1m.csv');
     const t0 = performance.now();
@@ -47,13 +47,15 @@ async function main(): Promise<void> {
 
     const server = await startServerProcess(config);
     say(`server ready, resident ${server.rssMb().toFixed(0)} MB`);
+    const analyst = await signIn({ app: server.url, ctx: { dataSource: ds } }, { role: 'analyst', programId });
     const phaseRss: Record<string, number> = {};
     let phase = 'upload';
     const sampler = setInterval(() => (phaseRss[phase] = Math.max(phaseRss[phase] ?? 0, server.rssMb())), 100);
-    const run = await uploadToAccepted(server.url, programId, csv, (next) => (phase = next));
+    const run = await uploadToAccepted(analyst, programId, csv, (next) => (phase = next));
     clearInterval(sampler);
     const peak = server.peakRssMb();
     await server.stop();
+    await ds.destroy();
     say(`resident memory by phase (MB, sampled every 0.1 s): ${Object.entries(phaseRss).map(([k, v]) => `${k}=${v.toFixed(0)}`).join(' ')}`);
     const { total, phases } = run;
     const raw = await rawLoadData(config, csv);
@@ -91,20 +93,17 @@ async function writeBenchCsv(file: string, rows: number): Promise<void> {
 }
 
 async function uploadToAccepted(
-  url: string,
+  analyst: SignedInAgent,
   programId: number,
   csv: string,
   onPhase: (phase: string) => void,
 ): Promise<{ total: number; phases: Record<string, number> }> {
-  const api = `${url}/api/programs/${programId}/extracts`;
+  const api = `/api/programs/${programId}/extracts`;
   const start = performance.now();
   const mark = () => (performance.now() - start) / 1000;
-  const form = new FormData();
-  form.set('period', '2025-04');
-  form.set('file', await fs.openAsBlob(csv), 'bench-1m.csv');
-  const up = (await (await fetch(api, { method: 'POST', body: form })).json()) as ExtractUploadResultDto;
-  if (!up.extract) throw new Error(`upload failed: ${JSON.stringify(up)}`);
-  const id = up.extract.id;
+  const up = await analyst.post(api).field('period', '2025-04').attach('file', csv, 'bench-1m.csv');
+  if (up.status !== 201) throw new Error(`upload answered ${up.status}: ${JSON.stringify(up.body)}`);
+  const id = (up.body as ExtractUploadResultDto).extract.id;
   const uploaded = mark();
   onPhase('validate');
   const mapping = {
@@ -115,26 +114,22 @@ async function uploadToAccepted(
     outcomes: { employed: 'employed', earnings: 'earnings' },
     covariates: { age: 'age', prior_earnings: 'prior_earnings' },
   };
-  await send(`${api}/${id}/mapping`, 'PUT', { newSourceName: 'Bench export', mapping });
-  const report = await settle(`${api}/${id}`);
+  await analyst.put(`${api}/${id}/mapping`).send({ newSourceName: 'Bench export', mapping }).expect(200);
+  const report = await settle(analyst, `${api}/${id}`);
   if (!report.canAccept) throw new Error(`not acceptable: ${JSON.stringify(report.problem)}`);
   const validated = mark();
   onPhase('load');
-  await send(`${api}/${id}/accept`, 'POST', {});
-  const done = await settle(`${api}/${id}`);
+  await analyst.post(`${api}/${id}/accept`).send({}).expect(200);
+  const done = await settle(analyst, `${api}/${id}`);
   if (done.status !== 'accepted') throw new Error(`ended ${done.status}: ${JSON.stringify(done.problem)}`);
   const total = mark();
   return { total, phases: { upload: uploaded, validate: validated - uploaded, load: total - validated } };
 }
 
-async function send(url: string, method: string, body: unknown): Promise<void> {
-  const res = await fetch(url, { method, headers: { 'Content-Type': 'application/json' }, body: JSON.stringify(body) });
-  if (!res.ok) throw new Error(`${method} ${url} answered ${res.status}: ${await res.text()}`);
-}
-
-async function settle(url: string): Promise<ExtractDetailDto> {
+/** Polls as the client does (every 0.1 s here) until the background step has finished. */
+async function settle(analyst: SignedInAgent, url: string): Promise<ExtractDetailDto> {
   for (;;) {
-    const body = (await (await fetch(url)).json()) as ExtractDetailDto;
+    const body = (await analyst.get(url).expect(200)).body as ExtractDetailDto;
     if (!EXTRACT_BUSY_STATUSES.includes(body.status)) return body;
     await new Promise((r) => setTimeout(r, 100));
   }

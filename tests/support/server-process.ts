@@ -4,13 +4,22 @@ import net from 'node:net';
 import path from 'node:path';
 import { REPO_ROOT } from '@server/config/env';
 import type { Config } from '@server/config/env';
+import { testIdentityProvider } from './local-idp';
 
-/** The environment that makes `server/main.ts` use a given configuration (database, secrets, var folder). */
+/**
+ * The environment that makes `server/main.ts` use a given configuration (database, secrets, var
+ * folder) and trust the tests' local identity provider as if it were the agency's.
+ */
 export function serverEnv(config: Config, port: number): NodeJS.ProcessEnv {
+  const idp = testIdentityProvider().settings;
   return {
     ...process.env,
-    NODE_ENV: config.env,
+    NODE_ENV: 'production',
     CUTLINE_APP_PORT: String(port),
+    CUTLINE_PUBLIC_URL: `http://127.0.0.1:${port}`,
+    CUTLINE_SAML_IDP_ENTITY_ID: idp.entityId,
+    CUTLINE_SAML_IDP_SSO_URL: idp.ssoUrl,
+    CUTLINE_SAML_IDP_CERT: idp.certificates[0],
     CUTLINE_VAR_DIR: config.varDir,
     CUTLINE_DB_HOST: config.db.host,
     CUTLINE_DB_PORT: String(config.db.port),
@@ -37,7 +46,8 @@ export interface ServerProcess {
 
 /**
  * Starts the production entry `server/main.ts` as its own Node process (no tsx wrapper process,
- * so the pid is the server's own) and waits until it answers /api/health.
+ * so the pid is the server's own) and waits until it answers /api/health. Sign in to it with
+ * `signIn({ app: server.url, ctx: { dataSource } }, …)` (tests/support/sign-in.ts).
  */
 export async function startServerProcess(config: Config): Promise<ServerProcess> {
   const port = await freePort();

@@ -29,6 +29,12 @@ export interface SignInOptions {
   csrf?: boolean;
 }
 
+/** The app to sign in to: in process, or a server process at a URL (its database given for the person and grants). */
+export interface SignInTarget {
+  app: TestApp['app'] | string;
+  ctx: Pick<TestApp['ctx'], 'dataSource'>;
+}
+
 let counter = 0;
 
 /**
@@ -40,7 +46,7 @@ let counter = 0;
  * @example const analyst = await signIn(t, { role: 'analyst', programId });
  *          await analyst.post(`/api/programs/${programId}/extracts`).send(body).expect(201);
  */
-export async function signIn(t: TestApp, options: SignInOptions = {}): Promise<SignedInAgent> {
+export async function signIn(t: SignInTarget, options: SignInOptions = {}): Promise<SignedInAgent> {
   const email = options.email ?? `person-${process.pid}-${++counter}@test.example`;
   const displayName = options.displayName ?? `Test person ${counter}`;
   const grants: readonly GrantLike[] = options.grants ?? (options.role ? [{ role: options.role, programId: options.programId ?? null }] : []);
@@ -81,7 +87,7 @@ export async function signInThroughIdp(
 }
 
 /** Creates the person if needed and gives them the grants they lack (as an administrator would). */
-async function ensurePerson(t: TestApp, email: string, displayName: string, grants: readonly GrantLike[]): Promise<number> {
+async function ensurePerson(t: SignInTarget, email: string, displayName: string, grants: readonly GrantLike[]): Promise<number> {
   const users = t.ctx.dataSource.getRepository(User);
   const user =
     (await users.findOneBy({ email })) ??
