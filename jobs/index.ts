@@ -1,10 +1,12 @@
 import cron from 'node-cron';
 import { directorSummaryJob } from './director-summary.job';
 import type { JobContext, JobDefinition } from './job';
+import { purgeObservationsJob } from './purge-observations.job';
 
 /** Every scheduled job. Each file `<name>.job.ts` exports one definition; list it here, one a line. */
 export const JOBS: JobDefinition[] = [
   directorSummaryJob,
+  purgeObservationsJob,
 ];
 
 /** Registers every job with node-cron; a failing run is logged and the schedule keeps going. */

@@ -2,6 +2,7 @@ import type { DataSource } from 'typeorm';
 import { In } from 'typeorm';
 import { Extract } from '../../entities/extract.entity';
 import { AppError } from '../../lib/errors';
+import { tryNamedLock } from '../recompute/named-lock';
 import { loadExtract, stageTable } from './load-extract';
 import { validateExtract, type IngestDeps } from './validate-extract';
 
@@ -71,7 +72,7 @@ export class IngestWorker {
 
   private async step(extractId: number): Promise<void> {
     const ds = this.deps.dataSource;
-    const lock = await namedLock(ds, `cutline_extract_${extractId}`);
+    const lock = await tryNamedLock(ds, extractLockName(ds, extractId));
     if (!lock) return; // another instance is on it
     try {
       const repo = ds.getRepository(Extract);
@@ -114,25 +115,9 @@ function safeError(err: unknown): Record<string, unknown> {
   return { value: typeof err };
 }
 
-/** A MariaDB named lock held on its own connection; `null` when someone else holds it. */
-async function namedLock(ds: DataSource, name: string): Promise<{ release: () => Promise<void> } | null> {
-  const runner = ds.createQueryRunner();
-  try {
-    const [row] = (await runner.query('SELECT GET_LOCK(?, 0) AS got', [name])) as Array<{ got: number | string | null }>;
-    if (Number(row?.got) !== 1) {
-      await runner.release();
-      return null;
-    }
-  } catch (err) {
-    await runner.release();
-    throw err;
-  }
-  return {
-    release: async () => {
-      await runner.query('SELECT RELEASE_LOCK(?)', [name]).catch(() => undefined);
-      await runner.release();
-    },
-  };
+/** Named locks are server-wide in MariaDB: the name carries the database, so two databases never block each other. */
+function extractLockName(ds: DataSource, extractId: number): string {
+  return `cutline:${String(ds.options.database ?? 'cutline')}:extract:${extractId}`.slice(0, 64);
 }
 
 const workers = new WeakMap<DataSource, IngestWorker>();
