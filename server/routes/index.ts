@@ -14,6 +14,7 @@ import { programAdminRoutes } from './program-admin.routes';
 import { programRoutes } from './programs.routes';
 import { resultRoutes } from './results.routes';
 import { runRoutes } from './runs.routes';
+import { sampleExtractRoutes } from './sample-extract.routes';
 
 /**
  * Every API router, mounted under /api. One a line, sorted. Each route's first handler is
@@ -35,5 +36,6 @@ export function apiRouter(ctx: AppContext): Router {
   router.use(programRoutes(ctx));
   router.use(resultRoutes(ctx));
   router.use(runRoutes(ctx));
+  router.use(sampleExtractRoutes(ctx));
   return router;
 }

@@ -14,6 +14,11 @@ describe('guessMapping', () => {
       outcomes: { shutoff_6m: 'shutoff_6m', arrears: 'Arrears months' },
     });
   });
+  it('does not take "months in arrears" for the cohort month', () => {
+    const guess = guessMapping(['Case ref', 'Applied on', 'Shut-off within 6 months', 'Months in arrears'], [], []);
+    expect(guess.periodColumn).toBeUndefined();
+    expect(guess.subjectId).toBe('Case ref');
+  });
   it('leaves a role out when nothing fits', () => {
     expect(guessMapping(['a', 'b'], [], []).score).toBeUndefined();
   });

@@ -6,15 +6,19 @@ interface Definition {
   label: string;
 }
 
-/** Name fragments that usually mark a role's column (English exports; a guess, always shown for review). */
-const HINTS = {
-  subjectId: ['case number', 'case no', 'case_number', 'case id', 'case_id', 'applicant id', 'subject id', 'household id', 'id'],
-  score: ['score', 'index', 'points', 'rank'],
-  takeUp: ['take up', 'take_up', 'takeup', 'enrolled', 'received', 'taken', 'participat', 'paid'],
-  applicationDate: ['application date', 'application_date', 'date applied', 'applied', 'date'],
-  periodColumn: ['period', 'cohort', 'month'],
-  cluster: ['office', 'cluster', 'caseworker', 'region', 'site'],
-} as const;
+/**
+ * Names that usually mark a role's column (English exports; a guess, always shown for review):
+ * `exact` names first, then `partial` fragments of a name.
+ */
+const HINTS: Record<'subjectId' | 'score' | 'takeUp' | 'applicationDate' | 'periodColumn' | 'cluster', { exact: string[]; partial: string[] }> = {
+  subjectId: { exact: ['id', 'case', 'case number', 'case no', 'case no.'], partial: ['case number', 'case no', 'case_number', 'case id', 'case_id', 'case ref', 'applicant id', 'subject id', 'household id'] },
+  score: { exact: ['score'], partial: ['score', 'index', 'points', 'rank'] },
+  takeUp: { exact: ['take-up', 'take up', 'take_up', 'takeup'], partial: ['take up', 'take_up', 'takeup', 'enrolled', 'received', 'taken', 'participat', 'paid'] },
+  applicationDate: { exact: ['date'], partial: ['application date', 'application_date', 'date applied', 'applied', 'date'] },
+  // "month" alone is too common inside other names ("months in arrears") to be a fragment.
+  periodColumn: { exact: ['period', 'cohort', 'month', 'cohort month'], partial: ['period', 'cohort'] },
+  cluster: { exact: ['office', 'cluster', 'site'], partial: ['office', 'cluster', 'caseworker', 'region', 'site'] },
+};
 
 /**
  * A first guess of the mapping from column names, for a header Cutline has not seen before:
@@ -46,13 +50,13 @@ export function guessMapping(
     const col = byDefinition(c);
     if (col) covariateMap[c.key] = col;
   }
-  const byHint = (hints: readonly string[]) => {
+  const byHint = (hints: { exact: string[]; partial: string[] }) => {
     const names = columns.map(normaliseColumnName);
-    for (const hint of hints) {
+    for (const hint of hints.exact) {
       const exact = names.findIndex((n, i) => !used.has(i) && n === hint);
       if (exact >= 0) return take(exact);
     }
-    for (const hint of hints) {
+    for (const hint of hints.partial) {
       const partial = names.findIndex((n, i) => !used.has(i) && n.includes(hint));
       if (partial >= 0) return take(partial);
     }

@@ -28,6 +28,8 @@ export const router = createBrowserRouter([
       { path: 'admin/mail', lazy: async () => ({ Component: (await import('./routes/admin-mail')).default }) },
       { path: 'admin/mail/:messageId', lazy: async () => ({ Component: (await import('./routes/admin-mail-message')).default }) },
       { path: 'me/summary', lazy: async () => ({ Component: (await import('./routes/my-summary')).default }) },
+      { path: 'programs/:programId/extracts', lazy: async () => ({ Component: (await import('./routes/extracts')).default }) },
+      { path: 'programs/:programId/extracts/:extractId', lazy: async () => ({ Component: (await import('./routes/extract')).default }) },
       { path: '*', lazy: async () => ({ Component: (await import('./routes/not-found')).default }) },
     ],
   },

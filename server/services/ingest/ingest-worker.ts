@@ -120,14 +120,17 @@ function extractLockName(ds: DataSource, extractId: number): string {
   return `cutline:${String(ds.options.database ?? 'cutline')}:extract:${extractId}`.slice(0, 64);
 }
 
-const workers = new WeakMap<DataSource, IngestWorker>();
+const workers = new WeakMap<DataSource, Map<string, IngestWorker>>();
 
-/** The worker of a data source (one per process and database). */
+/**
+ * The worker of a data source and runtime folder (one per process and database in practice; a
+ * caller with another folder, such as a test's demo installer, gets its own, since the folder holds
+ * the files the work needs).
+ */
 export function ingestWorker(deps: IngestDeps): IngestWorker {
-  let worker = workers.get(deps.dataSource);
-  if (!worker) {
-    worker = new IngestWorker(deps);
-    workers.set(deps.dataSource, worker);
-  }
+  let byFolder = workers.get(deps.dataSource);
+  if (!byFolder) workers.set(deps.dataSource, (byFolder = new Map()));
+  let worker = byFolder.get(deps.config.varDir);
+  if (!worker) byFolder.set(deps.config.varDir, (worker = new IngestWorker(deps)));
   return worker;
 }

@@ -2,7 +2,7 @@ import { flexRender, getCoreRowModel, useReactTable, type ColumnDef } from '@tan
 
 /**
  * A plain table of rows already paged by the server (TanStack Table, manual pagination).
- * `label` names the table for screen readers.
+ * `label` names the table for screen readers. A column with `meta: { numeric: true }` aligns right.
  */
 export function DataTable<T>({
   columns,
@@ -25,7 +25,7 @@ export function DataTable<T>({
           {table.getHeaderGroups().map((group) => (
             <tr key={group.id}>
               {group.headers.map((header) => (
-                <th key={header.id} scope="col" className="px-4 py-2.5 font-medium">
+                <th key={header.id} scope="col" className={`px-4 py-2.5 font-medium ${isNumeric(header.column.columnDef) ? 'text-right' : ''}`}>
                   {header.isPlaceholder ? null : flexRender(header.column.columnDef.header, header.getContext())}
                 </th>
               ))}
@@ -36,7 +36,7 @@ export function DataTable<T>({
           {table.getRowModel().rows.map((row) => (
             <tr key={row.id} className="border-b border-rule last:border-0 align-top">
               {row.getVisibleCells().map((cell) => (
-                <td key={cell.id} className="px-4 py-3 text-ink-900">
+                <td key={cell.id} className={`px-4 py-3 text-ink-900 ${isNumeric(cell.column.columnDef) ? 'figures text-right' : ''}`}>
                   {flexRender(cell.column.columnDef.cell, cell.getContext())}
                 </td>
               ))}
@@ -46,4 +46,9 @@ export function DataTable<T>({
       </table>
     </div>
   );
+}
+
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+function isNumeric<T>(def: ColumnDef<T, any>): boolean {
+  return Boolean((def.meta as { numeric?: boolean } | undefined)?.numeric);
 }

@@ -34,6 +34,7 @@ export function ProgramList() {
 function ProgramCard({ program }: { program: ProgramSummaryDto }) {
   const me = useSignedInUser();
   const analysis = holdsRoleForProgram(me, ['admin', 'analyst'], program.id);
+  const extracts = holdsRoleForProgram(me, ['admin', 'analyst', 'evaluator'], program.id);
   return (
     <li className="break-inside-avoid rounded-lg border border-rule bg-panel p-6">
       <div className="flex flex-wrap items-baseline justify-between gap-3">
@@ -57,14 +58,23 @@ function ProgramCard({ program }: { program: ProgramSummaryDto }) {
           <ProgramHeadline program={program} />
         </>
       )}
-      {analysis ? (
-        <p className="no-print mt-5 flex gap-4 border-t border-rule pt-4 text-sm">
-          <Link className="text-accent-700 underline" to={`/programs/${program.id}/designs`}>
-            Evaluation designs
-          </Link>
-          <Link className="text-accent-700 underline" to={`/programs/${program.id}/runs`}>
-            Recompute runs
-          </Link>
+      {analysis || extracts ? (
+        <p className="no-print mt-5 flex flex-wrap gap-4 border-t border-rule pt-4 text-sm">
+          {extracts ? (
+            <Link className="text-accent-700 underline" to={`/programs/${program.id}/extracts`}>
+              Monthly extracts
+            </Link>
+          ) : null}
+          {analysis ? (
+            <>
+              <Link className="text-accent-700 underline" to={`/programs/${program.id}/designs`}>
+                Evaluation designs
+              </Link>
+              <Link className="text-accent-700 underline" to={`/programs/${program.id}/runs`}>
+                Recompute runs
+              </Link>
+            </>
+          ) : null}
         </p>
       ) : null}
     </li>

@@ -1,0 +1,76 @@
+import ExcelJS from 'exceljs';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { installDemoScenario } from '@server/demo/install-demo';
+import { loadObservations } from '@server/services/observations.service';
+import { demoPeriods, generateDemoCohort } from '@shared/demo/heating-credit';
+import { mapExtract, uploadExtract } from '../support/extracts';
+import { signIn, type SignedInAgent } from '../support/sign-in';
+import { buildTestApp } from '../support/test-app';
+import { createTestDatabase, type TestDatabase } from '../support/test-database';
+
+describe('the demo scenario through the ingest path', () => {
+  let db: TestDatabase;
+  let programId: number;
+  let analyst: SignedInAgent;
+  beforeAll(async () => {
+    db = await createTestDatabase();
+    programId = (await installDemoScenario(db.dataSource, { config: db.config })).programId;
+    analyst = await signIn(buildTestApp(db), { role: 'analyst', programId });
+  });
+  afterAll(async () => {
+    await db.drop();
+  });
+
+  it('loads all 24 months as accepted extracts of the case-management source, mapped by the saved mapping', async () => {
+    const list = await analyst.get(`/api/programs/${programId}/extracts?pageSize=50`).expect(200);
+    expect(list.body.total).toBe(24);
+    for (const e of list.body.items) expect(e).toMatchObject({ status: 'accepted', source: { name: 'Case-management export' }, rowsRejected: 0 });
+    const periods = demoPeriods();
+    const data = await loadObservations(db.dataSource, programId, periods);
+    expect(data.cohorts.map((c) => c.period)).toEqual(periods);
+    for (const c of data.cohorts) expect(c.length).toBe(generateDemoCohort(c.period).households.length);
+    // The generator's values come through unchanged (first household of the first month).
+    const first = generateDemoCohort(periods[0]!).households[0]!;
+    expect([data.score[0], data.takeUp![0], data.outcomes.arrears_months![0], data.covariates.household_size![0]]).toEqual([
+      first.score,
+      first.takeUp,
+      first.arrears_months,
+      first.household_size,
+    ]);
+    const again = await installDemoScenario(db.dataSource, { config: db.config });
+    expect(again).toEqual({ installed: false, programId });
+  });
+
+  it('offers the regional office workbook, which uploads and checks cleanly once mapped', async () => {
+    const res = await analyst.get(`/api/programs/${programId}/sample-extract.xlsx`).buffer(true).parse((r, done) => {
+      const chunks: Buffer[] = [];
+      r.on('data', (c: Buffer) => chunks.push(c));
+      r.on('end', () => done(null, Buffer.concat(chunks)));
+    });
+    expect(res.status).toBe(200);
+    const workbook = new ExcelJS.Workbook();
+    await workbook.xlsx.load(res.body as Buffer);
+    expect(workbook.worksheets.map((w) => w.name)).toEqual(['Applications', 'Notes']);
+    const up = await uploadExtract(analyst, { programId, content: res.body as Buffer, fileName: 'regional-office-2026-11.xlsx', period: '2026-11' });
+    expect(up.extract).toMatchObject({ status: 'uploaded', format: 'xlsx', sheet: 'Applications' });
+    expect(up.extract.suggestedMapping).toMatchObject({ subjectId: 'Case no.', score: 'Hardship index', applicationDate: 'Date applied', takeUp: 'Heating credit received', cluster: 'Office' });
+    const report = await mapExtract(
+      analyst,
+      programId,
+      up.extract.id,
+      {
+        subjectId: 'Case no.',
+        score: 'Hardship index',
+        takeUp: 'Heating credit received',
+        takeUpValues: { yes: ['yes'], no: ['no'] },
+        applicationDate: 'Date applied',
+        cluster: 'Office',
+        outcomes: { shutoff_6m: 'Shut-off within 6 months', arrears_months: 'Months in arrears (6 months)' },
+        covariates: { household_size: 'People in household', prior_arrears: 'Arrears months, last year' },
+      },
+      { newSourceName: 'Regional office workbook' },
+    );
+    expect(report).toMatchObject({ status: 'awaiting-decision', problem: null, canAccept: true });
+    expect(report.report!.rowsAccepted).toBe(generateDemoCohort('2026-11').households.length);
+  });
+});
