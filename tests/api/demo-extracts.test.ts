@@ -49,7 +49,8 @@ describe('the demo scenario through the ingest path', () => {
     });
     expect(res.status).toBe(200);
     const workbook = new ExcelJS.Workbook();
-    await workbook.xlsx.load(res.body as Buffer);
+    const bytes = res.body as Buffer;
+    await workbook.xlsx.load(bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer);
     expect(workbook.worksheets.map((w) => w.name)).toEqual(['Applications', 'Notes']);
     const up = await uploadExtract(analyst, { programId, content: res.body as Buffer, fileName: 'regional-office-2026-11.xlsx', period: '2026-11' });
     expect(up.extract).toMatchObject({ status: 'uploaded', format: 'xlsx', sheet: 'Applications' });
