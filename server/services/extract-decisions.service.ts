@@ -9,6 +9,8 @@ import { recordAudit, type AuditActor } from './audit.service';
 import { createDataSource, findDataSource, saveMapping } from './data-sources.service';
 import { findExtract, getExtractDetail } from './extracts.service';
 import { ingestWorker } from './ingest/ingest-worker';
+import { requestRecompute } from './recompute/run-queue';
+import { wakeRecompute } from './recompute/wake';
 import { buildRowRules } from './ingest/mapping-rules';
 import { programFacts } from './ingest/program-facts';
 import type { IngestDeps } from './ingest/validate-extract';
@@ -149,7 +151,9 @@ export async function restoreExtract(deps: IngestDeps, programId: number, extrac
       subjectId: target.id,
       details: { period: target.period, sha256: target.sha256, replaces: current?.id ?? null },
     });
+    await requestRecompute(tx, { programId, trigger: 'extract-accepted', actor, now });
   });
+  wakeRecompute(ds);
   return detail(deps, programId, extractId);
 }
 

@@ -94,6 +94,9 @@ describe('extracts: duplicates, supersede, restore, pseudonymisation', () => {
       'extract.restore',
       'extract.restore',
     ]);
+    // Each change of the month's visible data queued a recompute with it (joined while one waits).
+    const runs = await db.dataSource.query('SELECT `trigger`, status FROM recompute_run WHERE program_id = ?', [programId]);
+    expect(runs).toEqual([{ trigger: 'extract-accepted', status: 'queued' }]);
   });
 
   it('stores subject identifiers only as HMAC-SHA-256 pseudonyms, and no raw identifier anywhere', async () => {

@@ -4,6 +4,8 @@ import { Cohort } from '../../entities/cohort.entity';
 import { Extract, type ObservationSlots } from '../../entities/extract.entity';
 import { AppError } from '../../lib/errors';
 import { recordAudit, type AuditActor } from '../audit.service';
+import { requestRecompute } from '../recompute/run-queue';
+import { wakeRecompute } from '../recompute/wake';
 import type { IngestDeps } from './validate-extract';
 import { ingestFiles } from './work-dir';
 
@@ -53,6 +55,7 @@ export async function loadExtract(deps: IngestDeps, extractId: number): Promise<
     await repo.update({ id: extractId }, { progress: { phase: 'publishing', done: loaded, total: expected, unit: 'rows' } });
     const staged = Date.now();
     const replaced = await ds.transaction(async (tx) => publish(tx, extract, stage));
+    wakeRecompute(ds);
     deps.logger.info({ extractId, rows: loaded, superseded: replaced, stageMs: staged - started, publishMs: Date.now() - staged }, 'extract accepted');
   } finally {
     release().catch(() => undefined);
@@ -108,5 +111,7 @@ async function publish(tx: EntityManager, extract: Extract, stage: string): Prom
     subjectId: extract.id,
     details: { period: extract.period, sha256: extract.sha256, rowsAccepted: extract.rowsAccepted, rowsRejected: extract.rowsRejected, replaces: current?.id ?? null },
   });
+  // The month's data changed: results computed from it are stale, so a recompute is queued with the swap.
+  await requestRecompute(tx, { programId: extract.programId, trigger: 'extract-accepted', actor, now });
   return current?.id ?? null;
 }
