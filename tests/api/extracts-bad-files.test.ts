@@ -1,4 +1,5 @@
 import fs from 'node:fs';
+import { ingestWorker } from '@server/services/ingest/ingest-worker';
 import { ingestFiles } from '@server/services/ingest/work-dir';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ExtractDetailDto } from '@shared/api/extracts';
@@ -7,7 +8,7 @@ import { BAD_FILES } from '../fixtures/bad-extract-files';
 import { fixtureDir, goodRows, TEST_MAPPING, toCsv } from '../fixtures/extract-files';
 import { createTestProgram } from '../fixtures/test-program';
 import { acceptAndSettle, postExtract, settledExtract, uploadExtract, visibleState } from '../support/extracts';
-import { buildTestApp } from '../support/test-app';
+import { buildTestApp, type TestApp } from '../support/test-app';
 import { createTestDatabase, type TestDatabase } from '../support/test-database';
 import { signIn, type SignedInAgent } from '../support/sign-in';
 
@@ -19,6 +20,7 @@ import { signIn, type SignedInAgent } from '../support/sign-in';
 describe('bad extract files', () => {
   let db: TestDatabase;
   let app: SignedInAgent;
+  let t: TestApp;
   let programId: number;
   let sourceId: number;
   let dir: string;
@@ -27,7 +29,8 @@ describe('bad extract files', () => {
   beforeAll(async () => {
     db = await createTestDatabase();
     programId = await createTestProgram(db.dataSource);
-    app = await signIn(buildTestApp(db), { role: 'analyst', programId });
+    t = buildTestApp(db);
+    app = await signIn(t, { role: 'analyst', programId });
     dir = fixtureDir();
     incoming = ingestFiles(db).incoming();
     // A good extract already accepted for the month, and its mapping saved: the bad files must not touch it.
@@ -39,6 +42,7 @@ describe('bad extract files', () => {
     sourceId = mapped.body.source.id;
     await settledExtract(app, programId, first.extract.id);
     expect((await acceptAndSettle(app, programId, first.extract.id)).status).toBe('accepted');
+    await ingestWorker(t.ctx).idle(); // the staging table goes once the swap has committed
   });
   afterAll(async () => {
     fs.rmSync(dir, { recursive: true, force: true });

@@ -85,8 +85,10 @@ describe('a server killed in the middle of an extract', () => {
     expect(visibleAfter.cohorts[0]!.extractId).toBe(id);
     const old = await analyst.get(`/api/programs/${programId}/extracts/${first.extract.id}`).expect(200);
     expect(old.body).toMatchObject({ status: 'superseded', supersededById: id });
-    const stages = await db.dataSource.query("SELECT table_name FROM information_schema.tables WHERE table_schema = DATABASE() AND table_name LIKE 'observation\\_stage\\_%'");
-    expect(stages).toEqual([]);
+    // The server drops the staging table right after the swap commits: wait for it, then none is left.
+    const stages = () => db.dataSource.query("SELECT table_name FROM information_schema.tables WHERE table_schema = DATABASE() AND table_name LIKE 'observation\\_stage\\_%'");
+    while ((await stages()).length > 0) await new Promise((r) => setTimeout(r, 20));
+    expect(await stages()).toEqual([]);
     const [{ n }] = await db.dataSource.query('SELECT COUNT(*) AS n FROM observation');
     expect(Number(n)).toBe(ROWS + previousRows.length);
 

@@ -30,6 +30,7 @@ describe('extracts: duplicates, supersede, restore, pseudonymisation', () => {
     const up = await uploadExtract(app, { programId, content: toCsv(april) });
     await mapExtract(app, programId, up.extract.id, TEST_MAPPING);
     await acceptAndSettle(app, programId, up.extract.id);
+    await ingestWorker(t.ctx).idle(); // the staging table goes once the swap has committed
     firstId = up.extract.id;
   });
   afterAll(async () => {
@@ -54,6 +55,7 @@ describe('extracts: duplicates, supersede, restore, pseudonymisation', () => {
     const report = await settledExtract(app, programId, secondId);
     expect(report.replaces).toMatchObject({ id: firstId, rowsAccepted: 120 });
     await acceptAndSettle(app, programId, secondId);
+    await ingestWorker(t.ctx).idle();
 
     const data = await loadObservations(db.dataSource, programId, ['2025-04']);
     expect(data.n).toBe(140);
