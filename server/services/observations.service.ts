@@ -3,6 +3,7 @@ import { cutoffForPeriod } from '@shared/domain/cutoff-schedule';
 import { rawConnection, streamRows } from '../db/raw-connection';
 import { CutoffChange } from '../entities/cutoff-change.entity';
 import { Extract } from '../entities/extract.entity';
+import type { CohortLoader } from './recompute/recompute-deps';
 
 /** One cohort's rows inside the arrays: `[offset, offset + length)`. */
 export interface CohortSegment {
@@ -103,3 +104,31 @@ export async function loadObservations(ds: DataSource, programId: number, period
   }
   return result;
 }
+
+/**
+ * The recompute's `CohortLoader` (`recompute/recompute-deps.ts`) over `loadObservations`: scores
+ * centred on each cohort's own cutoff, the cutoff per applicant, and the cohorts as segments.
+ * @throws Error when a cohort's accepted extract is no longer the one the run planned with (an
+ *   accept or restore happened meanwhile; the recompute it queued covers the new data)
+ */
+export const observationCohortLoader: CohortLoader = async (ds, programId, cohorts) => {
+  const arrays = await loadObservations(ds, programId, cohorts.map((c) => c.period));
+  const planned = new Map(cohorts.map((c) => [c.period, c]));
+  const centred = new Float64Array(arrays.n);
+  const cutoffOf = new Float64Array(arrays.n);
+  for (const segment of arrays.cohorts) {
+    const plan = planned.get(segment.period);
+    if (!plan || plan.extractId !== segment.extractId) {
+      throw new Error(`The accepted extract of ${segment.period} changed while the recompute was planned.`);
+    }
+    for (let i = segment.offset; i < segment.offset + segment.length; i++) {
+      centred[i] = arrays.score[i]! - plan.cutoff;
+      cutoffOf[i] = plan.cutoff;
+    }
+  }
+  if (arrays.missingPeriods.length > 0) throw new Error(`No visible observations for ${arrays.missingPeriods.join(', ')}.`);
+  return {
+    data: { n: arrays.n, centred, cutoffOf, takeUp: arrays.takeUp, outcomes: arrays.outcomes, covariates: arrays.covariates, cluster: arrays.cluster ?? null },
+    segments: arrays.cohorts.map((c) => ({ period: c.period, offset: c.offset, length: c.length })),
+  };
+};

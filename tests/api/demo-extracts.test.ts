@@ -1,7 +1,8 @@
 import ExcelJS from 'exceljs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { installDemoScenario } from '@server/demo/install-demo';
-import { loadObservations } from '@server/services/observations.service';
+import { loadObservations, observationCohortLoader } from '@server/services/observations.service';
+import { acceptedExtracts } from '@server/services/recompute/accepted-extracts';
 import { demoPeriods, generateDemoCohort } from '@shared/demo/heating-credit';
 import { mapExtract, uploadExtract } from '../support/extracts';
 import { signIn, type SignedInAgent } from '../support/sign-in';
@@ -39,6 +40,18 @@ describe('the demo scenario through the ingest path', () => {
     ]);
     const again = await installDemoScenario(db.dataSource, { config: db.config });
     expect(again).toEqual({ installed: false, programId });
+  });
+
+  it('hands the recompute the cohorts centred on their own cutoffs', async () => {
+    const extracts = await acceptedExtracts(db.dataSource.manager, programId);
+    const cohorts = extracts.slice(-3).map((e) => ({ ...e, cutoff: 58 }));
+    const loaded = await observationCohortLoader(db.dataSource, programId, cohorts);
+    const first = generateDemoCohort(cohorts[0]!.period).households[0]!;
+    expect(loaded.segments.map((s) => s.period)).toEqual(cohorts.map((c) => c.period));
+    expect(loaded.data.centred[0]).toBeCloseTo(first.score - 58, 12);
+    expect(loaded.data.cutoffOf[0]).toBe(58);
+    expect(loaded.data.cluster).toBeInstanceOf(Int32Array);
+    await expect(observationCohortLoader(db.dataSource, programId, [{ ...cohorts[0]!, extractId: 999 }])).rejects.toThrow(/changed while the recompute was planned/);
   });
 
   it('offers the regional office workbook, which uploads and checks cleanly once mapped', async () => {
