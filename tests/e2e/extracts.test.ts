@@ -116,7 +116,7 @@ describe('extract upload in Chromium', () => {
     await page.getByRole('link', { name: /extracts$/ }).first().click();
     const first = page.getByRole('table', { name: 'Extracts of this program' }).getByRole('row').nth(1);
     await first.getByText('Nov 2026').waitFor();
-    expect(await first.getByText('Accepted').isVisible()).toBe(true);
+    await first.getByText('Accepted').waitFor();
     expect(await first.getByText('north-office-2026-11.csv').isVisible()).toBe(true);
     await page.screenshot({ path: screenshotPath('extracts-list'), fullPage: true });
   }
