@@ -4,7 +4,7 @@ import { AddAuditTrail1796181110234 } from './1796181110234-AddAuditTrail';
 import { AddSignIn1796181746557 } from './1796181746557-AddSignIn';
 import { AddDesignsRunsResultsMail1796182794875 } from './1796182794875-AddDesignsRunsResultsMail';
 import { AddProgramWords1796187181992 } from './1796187181992-AddProgramWords';
-import { AddExtracts1796183792621 } from './1796183792621-AddExtracts';
+import { AddExtracts1796189192848 } from './1796189192848-AddExtracts';
 
 type MigrationClass = new () => MigrationInterface;
 
@@ -15,5 +15,5 @@ export const MIGRATIONS: MigrationClass[] = [
   AddSignIn1796181746557,
   AddDesignsRunsResultsMail1796182794875,
   AddProgramWords1796187181992,
-  AddExtracts1796183792621,
+  AddExtracts1796189192848,
 ];

@@ -1,7 +1,7 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
 
-export class AddExtracts1796183792621 implements MigrationInterface {
-  name = 'AddExtracts1796183792621';
+export class AddExtracts1796189192848 implements MigrationInterface {
+  name = 'AddExtracts1796189192848';
 
   async up(queryRunner: QueryRunner): Promise<void> {
     await queryRunner.query(`CREATE TABLE \`cluster_code\` (\`id\` int UNSIGNED NOT NULL AUTO_INCREMENT, \`program_id\` int UNSIGNED NOT NULL, \`value_hash\` binary(32) NOT NULL, UNIQUE INDEX \`uq_cluster_code_program_hash\` (\`program_id\`, \`value_hash\`), PRIMARY KEY (\`id\`)) ENGINE=InnoDB`);
