@@ -4,6 +4,8 @@ import { DataTable } from '@/components/ui/data-table';
 import { Pager } from '@/components/ui/pager';
 import { Empty, ErrorState, Loading } from '@/components/ui/states';
 import { formatDateTime, formatNumber } from '@/lib/format';
+import { useSignedInUser } from '@/features/auth/me-context';
+import { holdsRoleForProgram } from '@/features/auth/permissions';
 import { useRuns, useStartRecompute } from '../api/runs';
 import { buttonPrimary } from '@/components/ui/styles';
 
@@ -41,9 +43,11 @@ export function RunLog({ programId }: { programId: number }) {
   const [page, setPage] = useState(1);
   const runs = useRuns(programId, page);
   const start = useStartRecompute(programId);
+  // Analysts start recomputes; administrators read the log (the server checks the same rule).
+  const mayStart = holdsRoleForProgram(useSignedInUser(), ['analyst'], programId);
   return (
     <div className="grid gap-4">
-      <div className="flex flex-wrap items-center gap-3">
+      <div className={mayStart ? 'flex flex-wrap items-center gap-3' : 'hidden'}>
         <button type="button" className={buttonPrimary} disabled={start.isPending} onClick={() => start.mutate()}>
           Recompute now
         </button>
