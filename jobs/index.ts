@@ -2,11 +2,15 @@ import cron from 'node-cron';
 import { directorSummaryJob } from './director-summary.job';
 import type { JobContext, JobDefinition } from './job';
 import { purgeObservationsJob } from './purge-observations.job';
+import { recomputeNightlyJob } from './recompute-nightly.job';
+import { recomputeQueueJob } from './recompute-queue.job';
 
 /** Every scheduled job. Each file `<name>.job.ts` exports one definition; list it here, one a line. */
 export const JOBS: JobDefinition[] = [
   directorSummaryJob,
   purgeObservationsJob,
+  recomputeNightlyJob,
+  recomputeQueueJob,
 ];
 
 /** Registers every job with node-cron; a failing run is logged and the schedule keeps going. */

@@ -3,6 +3,9 @@ import { loadConfig } from '@server/config/env';
 import { createDataSource } from '@server/db/data-source';
 import { startLocalMailIfConfigured } from '@server/dev/local-smtp/start-local-mail';
 import { createLogger } from '@server/lib/logger';
+import { defaultRecomputeDeps } from '@server/services/recompute/default-deps';
+import { recomputeWorker } from '@server/services/recompute/recompute-worker';
+import { setRecomputeWaker } from '@server/services/recompute/wake';
 import { findJob, JOBS, startScheduler } from './index';
 
 /**
@@ -27,10 +30,14 @@ async function main(args: string[]): Promise<void> {
     return;
   }
   const localMail = await startLocalMailIfConfigured(config, (line) => logger.info(line));
+  const recompute = recomputeWorker(defaultRecomputeDeps(ctx));
+  setRecomputeWaker(dataSource, () => recompute.wake());
+  recompute.wake();
   const scheduler = startScheduler(ctx);
   logger.info({ jobs: JOBS.map((j) => j.name) }, 'scheduler running');
   const stop = async () => {
     await scheduler.stop();
+    await recompute.stop();
     await localMail?.close();
     await dataSource.destroy();
     process.exit(0);

@@ -5,11 +5,15 @@ import { visibleProgramsOf } from '../auth/access-enforcer';
 import { resolveExternalIdentityProvider } from '../auth/identity-provider';
 import { loadConfig } from '../config/env';
 import { startLocalIdp } from '../dev/local-idp/server';
+import { ensureDemoDesign } from '../demo/demo-design';
 import { installDemoScenario } from '../demo/install-demo';
 import { listen } from '../http-server';
 import { createLogger } from '../lib/logger';
 import { startLocalMailIfConfigured } from '../dev/local-smtp/start-local-mail';
 import { ingestWorker } from '../services/ingest/ingest-worker';
+import { defaultRecomputeDeps } from '../services/recompute/default-deps';
+import { recomputeWorker } from '../services/recompute/recompute-worker';
+import { setRecomputeWaker } from '../services/recompute/wake';
 import { ensureClientBuilt } from './client-build';
 import { openDevDatabase } from './database';
 import { prepareLocalEnv } from './local-env';
@@ -29,6 +33,7 @@ async function main(): Promise<void> {
   const dataSource = await openDevDatabase(config, say);
   const demo = await installDemoScenario(dataSource, { config, logger, log: say });
   if (demo.installed) say('Installed the invented demo scenario (Winter Heating Credit).');
+  if (await ensureDemoDesign(dataSource, demo.programId)) say('Created the demo evaluation design; the first recompute runs in the background.');
 
   const idpSource = config.auth.identityProvider;
   const localIdp = idpSource.kind === 'local' ? await startLocalIdp({ port: idpSource.port, varDir: config.varDir }) : null;
@@ -38,6 +43,10 @@ async function main(): Promise<void> {
   const app = createApp({ config, dataSource, logger, identityProvider, visiblePrograms: visibleProgramsOf });
   const http = await listen(app, config.app.port);
   const localMail = await startLocalMailIfConfigured(config, say);
+  // Recomputes start as soon as one is queued (extract accepted, design changed, on demand).
+  const recompute = recomputeWorker(defaultRecomputeDeps({ config, dataSource, logger }));
+  setRecomputeWaker(dataSource, () => recompute.wake());
+  recompute.wake();
   const scheduler = startScheduler({ config, dataSource, logger, now: () => new Date() });
   const ingest = ingestWorker({ config, dataSource, logger });
   await ingest.recover();
@@ -49,6 +58,7 @@ async function main(): Promise<void> {
     stopping = true;
     say('Stopping…');
     await scheduler.stop();
+    await recompute.stop();
     await localMail?.close();
     await http.close();
     await localIdp?.close();
