@@ -23,11 +23,12 @@ const COLUMNS: Array<ColumnSpec<CaveatRow>> = [
   { header: 'Code', value: (x) => x.c.code },
   { header: 'Severity', value: (x) => x.c.severity },
   { header: 'Standing (always shown)', value: (x) => ruleOf(x.c.code)?.standing ?? null },
-  { header: 'Trigger values', value: (x) => triggerValues(x.c.values) },
-  { header: 'Rule (when it fires)', value: (x) => ruleOf(x.c.code)?.trigger ?? null },
-  { header: 'Message', value: (x) => x.c.message },
+  { header: 'Trigger values', value: (x) => triggerValues(x.c.values), wrap: true },
+  { header: 'Rule (when it fires)', value: (x) => ruleOf(x.c.code)?.trigger ?? null, wrap: true },
+  { header: 'Message', value: (x) => x.c.message, wrap: true },
   {
     header: 'Acknowledged by a manager',
+    wrap: true,
     value: (x) =>
       (x.r.result.acknowledgements ?? [])
         .filter((a) => a.caveatCode === x.c.code)

@@ -30,6 +30,7 @@ const SETTING_ROWS: Array<{ label: string; value: (s: DesignSettings) => unknown
 export function coverSheet(content: AnnexContent): SheetBuilder {
   const { program, design, request, overview } = content;
   const sheet = new SheetBuilder('Cover');
+  sheet.printFitToWidth = true;
   sheet.fixedWidths.set(0, 36);
   sheet.fixedWidths.set(1, 72);
   const scopeText =
@@ -81,7 +82,7 @@ export function coverSheet(content: AnnexContent): SheetBuilder {
       [
         { header: 'From version', value: (d) => d.fromVersion, numFmt: F.integer },
         { header: 'To version', value: (d) => d.toVersion, numFmt: F.integer },
-        { header: 'Reason', value: (d) => d.reason },
+        { header: 'Reason', value: (d) => d.reason, wrap: true },
         { header: 'Settings changed', value: (d) => d.changed.join(', ') },
         { header: 'Recorded at (UTC)', value: (d) => d.recordedAt },
         { header: 'Recorded by', value: (d) => d.recordedBy },
@@ -114,6 +115,7 @@ function settingsColumns(versions: readonly DesignVersionDto[]): Array<ColumnSpe
     ...versions.map((v) => ({
       header: `Version ${v.version} (${v.createdAt.slice(0, 10)}, ${v.createdBy})`,
       value: (row: (typeof SETTING_ROWS)[number]) => row.value(v.settings),
+      wrap: true,
       numFmt: (row: (typeof SETTING_ROWS)[number]) => row.numFmt,
     })),
   ];

@@ -19,6 +19,7 @@ const ROLE_NAMES: Record<ExportColumn['role'], string> = {
  */
 export function dataDictionarySheet(content: AnnexContent): SheetBuilder {
   const sheet = new SheetBuilder('Data dictionary');
+  sheet.printFitToWidth = true;
   const columns = exportColumns(content.program, { cluster: content.exportHasCluster });
   sheet.title('Data dictionary of the de-identified export');
   sheet.note('One row per applicant of each accepted extract, in the order period, score, then the other columns (never the order of the uploaded file). Missing values are empty cells; numbers are written in full precision with a dot as decimal separator.');
@@ -31,7 +32,7 @@ export function dataDictionarySheet(content: AnnexContent): SheetBuilder {
       { header: 'Definition key', value: (c) => c.key },
       { header: 'Label', value: (c) => c.label },
       { header: 'Unit', value: (c) => c.unit },
-      { header: 'Description', value: (c) => c.description },
+      { header: 'Description', value: (c) => c.description, wrap: true },
     ],
     columns,
   );

@@ -80,6 +80,7 @@ const OUTPUT_FIELDS: ReadonlyArray<readonly [string, string]> = [
 /** Method notes: the estimator and inference in plain words, sources, and how to reproduce a figure. */
 export function methodNotesSheet(content: AnnexContent): SheetBuilder {
   const sheet = new SheetBuilder('Method notes');
+  sheet.printFitToWidth = true;
   sheet.wrapNotes = true;
   sheet.fixedWidths.set(0, PROSE_COLUMN_WIDTH);
   sheet.title('Method notes');

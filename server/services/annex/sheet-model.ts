@@ -32,6 +32,10 @@ export type NumberFormat = (typeof NUMBER_FORMATS)[keyof typeof NUMBER_FORMATS];
 export interface SheetCell {
   value: CellValue;
   numFmt?: NumberFormat;
+  /** Long text wraps inside the column (otherwise it runs on into empty cells to its right). */
+  wrap?: boolean;
+  /** Numbers against the left edge, beside their label (key–value lists). */
+  alignLeft?: boolean;
 }
 
 export type RowKind = 'title' | 'heading' | 'header' | 'body' | 'note';
@@ -47,6 +51,8 @@ export interface ColumnSpec<R> {
   value: (row: R) => unknown;
   /** How numbers of the column are shown; a function when it depends on the row. */
   numFmt?: NumberFormat | ((row: R) => NumberFormat | undefined);
+  /** A column of sentences: long text wraps (rows grow) instead of running on. */
+  wrap?: boolean;
 }
 
 /** Widest column the fitting gives (characters); longer text wraps. */
@@ -73,6 +79,8 @@ export class SheetBuilder {
   freeze: { rows: number; columns: number } | null = null;
   /** The header row (1-based) and column count of the filtered table. */
   filter: { row: number; columns: number } | null = null;
+  /** Printed on as many landscape pages as it needs, or scaled to one page across (sheets of prose and key–value lists). */
+  printFitToWidth = false;
   /** Notes wrap inside column A (prose sheets); otherwise they run across the empty cells to their right. */
   wrapNotes = false;
   /** Column widths forced by the sheet (characters), by 0-based column. */
@@ -93,9 +101,9 @@ export class SheetBuilder {
     return this.push('note', [{ value: text }]);
   }
 
-  /** A label and its value (and more values), e.g. "Engine version" | "0.1.0". */
+  /** A label and its value (and more values), e.g. "Engine version" | "0.1.0": long values wrap, numbers sit beside the label. */
   pair(label: string, ...values: Array<unknown | SheetCell>): this {
-    return this.push('body', [{ value: label }, ...values.map(asCell)]);
+    return this.push('body', [{ value: label }, ...values.map((v) => ({ ...asCell(v), wrap: true, alignLeft: true }))]);
   }
 
   blank(): this {
@@ -115,7 +123,9 @@ export class SheetBuilder {
         columns.map((c) => {
           const value = cellValue(c.value(item));
           const numFmt = typeof c.numFmt === 'function' ? c.numFmt(item) : c.numFmt;
-          return typeof value === 'number' && numFmt ? { value, numFmt } : { value };
+          const cell: SheetCell = typeof value === 'number' && numFmt ? { value, numFmt } : { value };
+          if (c.wrap) cell.wrap = true;
+          return cell;
         }),
       );
     }

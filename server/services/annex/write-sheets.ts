@@ -18,7 +18,7 @@ export interface WorkbookInfo {
  * last byte has been handed to the stream.
  */
 export async function writeSheets(output: Writable, info: WorkbookInfo, sheets: readonly SheetBuilder[]): Promise<void> {
-  const workbook = new ExcelJS.stream.xlsx.WorkbookWriter({ stream: output, useStyles: true, useSharedStrings: false });
+  const workbook = new ExcelJS.stream.xlsx.WorkbookWriter({ stream: output, useStyles: true, useSharedStrings: true });
   workbook.creator = info.creator;
   workbook.lastModifiedBy = info.creator;
   workbook.created = info.created;
@@ -32,6 +32,7 @@ function writeSheet(workbook: ExcelJS.stream.xlsx.WorkbookWriter, sheet: SheetBu
   const freeze = sheet.freeze;
   const worksheet = workbook.addWorksheet(sheet.name, {
     views: freeze ? [{ state: 'frozen', xSplit: freeze.columns, ySplit: freeze.rows }] : [{}],
+    pageSetup: { orientation: 'landscape', ...(sheet.printFitToWidth ? { fitToPage: true, fitToWidth: 1, fitToHeight: 0 } : {}) },
   });
   const widths = fittedWidths(sheet);
   worksheet.columns = widths.map((width) => ({ width }));
@@ -47,13 +48,14 @@ function writeSheet(workbook: ExcelJS.stream.xlsx.WorkbookWriter, sheet: SheetBu
  */
 const sharedStyles = new Map<string, Partial<ExcelJS.Style>>();
 
-function styleFor(kind: SheetRow['kind'], numFmt: string | undefined, wrap: boolean): Partial<ExcelJS.Style> {
-  const key = `${kind}|${numFmt ?? ''}|${wrap ? 'wrap' : ''}`;
+function styleFor(kind: SheetRow['kind'], numFmt: string | undefined, wrap: boolean, alignLeft: boolean, top: boolean): Partial<ExcelJS.Style> {
+  const key = `${kind}|${numFmt ?? ''}|${wrap ? 'wrap' : ''}|${alignLeft ? 'left' : ''}|${top ? 'top' : ''}`;
   let style = sharedStyles.get(key);
   if (!style) {
     style = {};
     if (numFmt) style.numFmt = numFmt;
-    if (wrap) style.alignment = { wrapText: true, vertical: 'top' };
+    // In a row that grows for wrapped text, everything reads from the top (a label level with the first line).
+    if (wrap || alignLeft || top) style.alignment = { ...(top ? { vertical: 'top' } : {}), ...(wrap ? { wrapText: true } : {}), ...(alignLeft ? { horizontal: 'left' } : {}) };
     if (kind === 'title') style.font = { name: FONT, size: 14, bold: true };
     if (kind === 'heading') style.font = { name: FONT, size: 12, bold: true };
     if (kind === 'header') {
@@ -67,14 +69,27 @@ function styleFor(kind: SheetRow['kind'], numFmt: string | undefined, wrap: bool
   return style;
 }
 
+/** Height of one line of 11-point text, points (Excel's default row height). */
+const LINE_HEIGHT_PT = 15;
+
 function writeRow(worksheet: ExcelJS.Worksheet, model: SheetRow, widths: readonly number[], wrapNotes: boolean): void {
-  // Values only ever numbers, text or empty (SheetBuilder guarantees it): no formula is written.
+  // Values only ever numbers, text or empty (SheetBuilder guarantees it): no formula is written,
+  // and text goes to the shared-strings table (`t="s"` cells: text, whatever it begins with).
   const row = worksheet.addRow(model.cells.map((c) => c.value));
-  model.cells.forEach((cell, i) => {
-    const long = typeof cell.value === 'string' && displayedText(cell).length > (widths[i] ?? 10);
-    const wrap = long && (model.kind === 'body' || (model.kind === 'note' && wrapNotes));
-    // Every cell gets a shared object, plain ones too (a fresh `{}` per cell is a lookup miss each).
-    row.getCell(i + 1).style = styleFor(model.kind, cell.numFmt, wrap);
+  let lines = 1;
+  const wraps = model.cells.map((cell, i) => {
+    const width = widths[i] ?? 10;
+    const length = typeof cell.value === 'string' ? displayedText(cell).length : 0;
+    const wrap = length > width && ((model.kind === 'body' && cell.wrap === true) || (model.kind === 'note' && wrapNotes));
+    // Spreadsheet programs do not grow rows for wrapped text by themselves: estimate the lines (a
+    // column of width w holds about w characters of text; common practice, no source).
+    if (wrap) lines = Math.max(lines, Math.ceil(length / Math.max(1, width - 1)));
+    return wrap;
   });
+  model.cells.forEach((cell, i) => {
+    // Every cell gets a shared object, plain ones too (a fresh `{}` per cell is a lookup miss each).
+    row.getCell(i + 1).style = styleFor(model.kind, cell.numFmt, wraps[i]!, cell.alignLeft === true && typeof cell.value === 'number', lines > 1);
+  });
+  if (lines > 1) row.height = lines * LINE_HEIGHT_PT;
   row.commit();
 }
