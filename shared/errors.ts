@@ -56,6 +56,8 @@ export const ERROR_CODES = [
   'extract_state_conflict',
   'extract_observations_purged',
   'extract_processing_failed',
+  // Annex and exports.
+  'export_no_observations',
 ] as const;
 
 export type ErrorCode = (typeof ERROR_CODES)[number];

@@ -48,6 +48,7 @@ const STATUS: Record<ErrorCode, number> = {
   extract_state_conflict: 409,
   extract_observations_purged: 410,
   extract_processing_failed: 500,
+  export_no_observations: 404,
 };
 
 /**

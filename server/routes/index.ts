@@ -6,6 +6,7 @@ import { adminUserRoutes } from './admin-users.routes';
 import { annexRoutes } from './annex.routes';
 import { dataSourceRoutes } from './data-sources.routes';
 import { designRoutes } from './designs.routes';
+import { exportRoutes } from './exports.routes';
 import { extractRoutes } from './extracts.routes';
 import { healthRoutes } from './health.routes';
 import { mailRoutes } from './mail.routes';
@@ -28,6 +29,7 @@ export function apiRouter(ctx: AppContext): Router {
   router.use(annexRoutes(ctx));
   router.use(dataSourceRoutes(ctx));
   router.use(designRoutes(ctx));
+  router.use(exportRoutes(ctx));
   router.use(extractRoutes(ctx));
   router.use(healthRoutes(ctx));
   router.use(mailRoutes(ctx));

@@ -7,7 +7,9 @@ import type { DesignSettings } from '@shared/schemas/design';
 import { AppError } from '../../lib/errors';
 import { getDesign } from '../designs.service';
 import { getProgram } from '../programs.service';
+import { clusterExported, exportColumns } from '../deidentified-export/export-columns';
 import { getCohortDetail, getCohortTrend, getResultsOverview } from '../results.service';
+import { extractMappings } from './extract-mappings';
 
 /** What the recompute stores of a `DiagnosticsReport`: every finding; the caveats are on the result itself. */
 export type StoredDiagnostics = Omit<DiagnosticsReport, 'caveats'>;
@@ -65,7 +67,7 @@ export interface AnnexContent {
   extracts: Array<{ period: string; extractId: number; sha256: string }>;
   /** Engine, diagnostics and app versions found in the results' provenance. */
   versions: { engine: string[]; diagnostics: string[]; app: string[] };
-  /** The export carries a cluster column (the primary design clusters its variance). */
+  /** The export carries a cluster column (a version of the primary design clusters its variance). */
   exportHasCluster: boolean;
   /** The column mapping of each extract behind the results. */
   mappings: ExtractMapping[];
@@ -109,6 +111,8 @@ export async function gatherAnnexContent(ds: DataSource, programId: number, requ
     throw new AppError('result_not_found', 'There are no results to put in an annex yet. They appear after an extract is accepted and the recompute has run.');
   }
   const summary = provenanceSummary(results, design);
+  const exportHasCluster = clusterExported(design.versions);
+  const mappings = await extractMappings(ds, programId, summary.extracts.map((e) => e.extractId), exportColumns(program, { cluster: exportHasCluster }));
   return {
     request,
     program,
@@ -116,8 +120,8 @@ export async function gatherAnnexContent(ds: DataSource, programId: number, requ
     design,
     results,
     ...summary,
-    exportHasCluster: design.currentVersion.settings.cluster === 'cluster-column',
-    mappings: [],
+    exportHasCluster,
+    mappings,
   };
 }
 

@@ -97,7 +97,7 @@ export function methodNotesSheet(content: AnnexContent): SheetBuilder {
     'The command carries the settings of the design version that produced the result (Cover sheet, Evaluation design): kernel, order, bandwidth rule or fixed bandwidth, variance estimator, confidence level, clusters and donut. A cohort is estimated on its score and cutoff; a pooled window on score_centred at cutoff 0, as Cutline pools cohorts. --missing skip leaves out applicants with a missing value in a column the estimate uses, as Cutline does.',
   );
   sheet.note(
-    'The figures agree with the Summary to about twelve significant digits rather than to the last bit: the export lists applicants in score order, not in the order of the uploaded file (so no row can be traced back to it), and sums taken in another order round differently in the last digits.',
+    'The figures agree with the Summary to about ten significant digits rather than to the last bit: the export lists applicants in order of their values, not in the order of the uploaded file (so no row can be traced back to it), sums taken in another order round differently in their last digits, and the data-driven bandwidth carries those tiny differences into every figure. Every figure agrees to all the decimals the Summary shows.',
   );
   const example = content.results.map((r) => reproduceCommand(content.program, r)).find((c): c is string => c !== null);
   if (example) {

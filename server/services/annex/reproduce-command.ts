@@ -13,8 +13,10 @@ import type { AnnexResult } from './annex-content';
 export function reproduceCommand(program: ProgramDetailDto, r: AnnexResult): string | null {
   const s = r.settings;
   if (!s || r.result.status !== 'ok') return null;
-  const clustered = s.cluster === 'cluster-column';
-  const columns = exportColumns(program, { cluster: clustered });
+  // Clustered only when the estimate was (a design may cluster while no extract maps a cluster column).
+  const clustered = s.cluster === 'cluster-column' && r.result.n?.clusters != null;
+  // Only the outcome's column name is needed here, and it does not depend on the cluster column.
+  const columns = exportColumns(program, { cluster: false });
   const outcome = outcomeColumn(columns, r.result.outcome.key);
   if (!outcome) return null;
   const scope = r.result.scope;

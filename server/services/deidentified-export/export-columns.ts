@@ -1,4 +1,5 @@
 import type { ProgramDetailDto } from '@shared/api/programs';
+import type { DesignSettings } from '@shared/schemas/design';
 
 /** What a column of the de-identified export holds. */
 export type ExportColumnRole = 'period' | 'cutoff' | 'score' | 'score-centred' | 'take-up' | 'outcome' | 'covariate' | 'cluster';
@@ -111,4 +112,12 @@ export function outcomeColumn(columns: readonly ExportColumn[], key: string): st
 /** The export's file name for a range of cohorts of a program. */
 export function exportFileName(programSlug: string, from: string, to: string): string {
   return `cutline-deidentified-${programSlug}-${from === to ? from : `${from}-to-${to}`}.csv`;
+}
+
+/**
+ * Whether the export carries the cluster column: when any version of the program's primary design
+ * clusters its variance, so the command line can reproduce every stored result of that design.
+ */
+export function clusterExported(versions: ReadonlyArray<{ settings: DesignSettings }>): boolean {
+  return versions.some((v) => v.settings.cluster === 'cluster-column');
 }

@@ -32,7 +32,7 @@ export function DeidentifiedExportButton({ programId, range }: { programId: numb
     <DownloadButton
       path={deidentifiedExportPath(programId, range)}
       fallbackName="cutline-deidentified.csv"
-      label={`De-identified data, ${which} (CSV; recorded in the audit trail)`}
+      label={`De-identified data, ${which} (CSV, download recorded)`}
       workingLabel="Preparing the data…"
     />
   );
@@ -43,6 +43,7 @@ export function AnnexDownloads({ programId, period }: { programId: number; perio
   return (
     <span className="inline-flex flex-wrap items-start gap-3">
       <AnnexDownloadButton programId={programId} period={period} />
+      <DeidentifiedExportButton programId={programId} range={period ? { from: period, to: period } : undefined} />
     </span>
   );
 }
