@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { installDemoScenario } from '@server/demo/install-demo';
 import { AuditEvent } from '@server/entities/audit-event.entity';
 import { createDesign } from '@server/services/designs.service';
-import { DEMO_COVARIATES, DEMO_OUTCOMES } from '@shared/demo/heating-credit';
+import { DEMO_COVARIATES, DEMO_OUTCOMES, generateDemoCohort } from '@shared/demo/heating-credit';
 import { defaultDesignSettings } from '@shared/schemas/design';
 import { demoCohortRows } from '../fixtures/demo-cohort-rows';
 import { launchBrowser, screenshotPath } from '../support/browser';
@@ -16,7 +16,7 @@ import { storeAnalyzedResults } from '../support/stored-results';
 import { createTestDatabase, type TestDatabase } from '../support/test-database';
 import { startTestServer, type TestServer } from '../support/test-server';
 
-/** The evaluator downloads the technical annex from the program screen and from one month, in Chromium. */
+/** The evaluator downloads the technical annex from the program screen and from one month, and a month's de-identified rows, in Chromium. */
 describe('evaluator downloads the technical annex', () => {
   let db: TestDatabase;
   let server: TestServer;
@@ -79,6 +79,19 @@ describe('evaluator downloads the technical annex', () => {
     expect(await summaryScopes(monthFile)).toEqual(['cohort:2026-09', 'cohort:2026-09']);
     await page.screenshot({ path: screenshotPath('annex-month-saved') });
     expect(await db.dataSource.getRepository(AuditEvent).countBy({ action: 'annex.download', programId })).toBe(2);
+
+    // The month's de-identified rows, for reproducing its figures.
+    const exportButton = page.getByRole('button', { name: 'De-identified data, this month (CSV, download recorded)' });
+    const [rows] = await Promise.all([page.waitForEvent('download'), exportButton.click()]);
+    expect(rows.suggestedFilename()).toBe('cutline-deidentified-winter-heating-credit-2026-09.csv');
+    const csv = path.join(saved, rows.suggestedFilename());
+    await rows.saveAs(csv);
+    const lines = fs.readFileSync(csv, 'utf8').trimEnd().split('\n');
+    expect(lines[0]).toBe('period,cutoff,score,score_centred,take_up,shutoff_6m,arrears_months,household_size,prior_arrears');
+    expect(lines).toHaveLength(generateDemoCohort('2026-09').households.length + 1);
+    expect(await db.dataSource.getRepository(AuditEvent).countBy({ action: 'export.download', programId })).toBe(1);
+    await page.getByRole('status').filter({ hasText: `Saved ${rows.suggestedFilename()}.` }).waitFor();
+    await page.screenshot({ path: screenshotPath('deidentified-month-saved') });
     await page.close();
   });
 
@@ -88,7 +101,7 @@ describe('evaluator downloads the technical annex', () => {
     await signInInBrowser(page, server.url, { role: 'manager' });
     await page.goto(`${server.url}/programs/${programId}/cohorts/2026-09`);
     await page.getByRole('button', { name: 'Print this month' }).waitFor();
-    expect(await page.getByRole('button', { name: /Technical annex/ }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: /Technical annex|De-identified/ }).count()).toBe(0);
     await page.close();
   });
 });

@@ -6,6 +6,7 @@ import { Program } from '@server/entities/program.entity';
 import { RecomputeRun } from '@server/entities/recompute-run.entity';
 import { APP_VERSION } from '@server/config/env';
 import type { ScopeData } from '@server/services/recompute/analyzer';
+import { acceptedExtracts } from '@server/services/recompute/accepted-extracts';
 import { engineAnalyzer } from '@server/services/recompute/engine-analyzer';
 import type { LoadedCohorts } from '@server/services/recompute/recompute-deps';
 import { planScopes, type CohortInput } from '@server/services/recompute/scope-plan';
@@ -31,8 +32,9 @@ export interface CohortRows {
  * Computes and stores a design version's results for the given cohorts the way a recompute run
  * does: the same scope plan, the app's own analyzer (`engineAnalyzer`: the estimation engine and
  * the diagnostics it runs), and the same rows in `estimate_result` and `estimate_result_detail`.
- * Used while no accepted extract can feed the recompute in these tests; nothing is made up: every
- * figure is the analyzer's. Extract ids are positions (1, 2, …) and the SHA-256 is of the rows.
+ * For tests and benchmarks that need many cohorts or outcomes without loading extracts; nothing is
+ * made up: every figure is the analyzer's. A cohort with an accepted extract is stamped with it;
+ * otherwise the extract id is a position past the real ones and the SHA-256 is of the rows.
  */
 export async function storeAnalyzedResults(
   ds: DataSource,
@@ -63,7 +65,8 @@ export async function storeAnalyzedResults(
       errorMessage: null,
     }),
   );
-  const { loaded, cohorts } = toLoadedCohorts(input.cohorts, input.settings);
+  const extracts = new Map((await acceptedExtracts(ds.manager, input.programId)).map((e) => [e.period, e]));
+  const { loaded, cohorts } = toLoadedCohorts(input.cohorts, input.settings, extracts);
   const basis = { designVersionId: input.designVersionId, settings: input.settings, eligibleSide: program.eligibleSide, engineVersion: engineAnalyzer.engineVersion, diagnosticsVersion: engineAnalyzer.diagnosticsVersion };
   let written = 0;
   for (const plan of planScopes(cohorts, basis)) {
@@ -113,7 +116,8 @@ export async function storeAnalyzedResults(
 }
 
 /** The cohorts end to end in one set of arrays, scores centred on each cohort's cutoff (as the recompute loads them). */
-function toLoadedCohorts(input: readonly CohortRows[], settings: DesignSettings): { loaded: LoadedCohorts; cohorts: CohortInput[] } {
+function toLoadedCohorts(input: readonly CohortRows[], settings: DesignSettings, extracts: ReadonlyMap<string, { extractId: number; sha256: string }>): { loaded: LoadedCohorts; cohorts: CohortInput[] } {
+  const firstFreeId = Math.max(0, ...[...extracts.values()].map((e) => e.extractId)) + 1;
   const n = input.reduce((s, c) => s + c.rows.length, 0);
   const column = () => new Float64Array(n);
   const covariateKeys = [...new Set(input.flatMap((c) => c.rows.flatMap((r) => Object.keys(r.covariates))))];
@@ -141,7 +145,9 @@ function toLoadedCohorts(input: readonly CohortRows[], settings: DesignSettings)
       hash.update(`${row.score},${row.takeUp},${JSON.stringify(row.outcomes)}\n`);
       at++;
     }
-    cohorts.push({ extractId: i + 1, period: c.period, sha256: hash.digest('hex'), acceptedAt: new Date(), rows: c.rows.length, cutoff: c.cutoff });
+    const real = extracts.get(c.period);
+    const sha256 = hash.digest('hex');
+    cohorts.push({ extractId: real?.extractId ?? firstFreeId + i, period: c.period, sha256: real?.sha256 ?? sha256, acceptedAt: new Date(), rows: c.rows.length, cutoff: c.cutoff });
   }
   return { loaded: { data, segments }, cohorts };
 }
