@@ -146,6 +146,21 @@ describe('caveat rules', () => {
     for (const c of applyCaveats(input)) expect(c.message.toLowerCase()).not.toContain('cluster');
   });
 
+  it('names the agency’s scores when it is given distances from one cohort’s cutoff, and distances when cutoffs are pooled', () => {
+    const input = cleanInput();
+    CASES.jumps_at_false_cutoffs!(input);
+    input.cutoff = 0;
+    input.findings.placebo = input.findings.placebo.map((r) => ({ ...r, cutoff: r.cutoff - 60 }));
+    const message = (code: string) => applyCaveats(input).find((c) => c.code === code)!.message;
+    input.centredFrom = 58;
+    expect(message('local_to_cutoff')).toMatch(/^This describes households with scores near 58\. /);
+    expect(message('jumps_at_false_cutoffs')).toMatch(/^The outcome also jumps at a score of 43, /);
+    input.centredFrom = null;
+    expect(message('local_to_cutoff')).toMatch(/^This describes households with scores near the cutoff in force each month\. /);
+    expect(message('jumps_at_false_cutoffs')).toMatch(/^The outcome also jumps 15 points below the cutoff, /);
+    for (const c of applyCaveats(input)) expect(c.message).not.toMatch(/scores? (near|of) -?0\b/);
+  });
+
   it('sorts serious before caution before info', () => {
     const input = cleanInput();
     for (const construct of Object.values(CASES)) construct(input);

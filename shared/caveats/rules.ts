@@ -32,9 +32,9 @@ export const CAVEAT_RULES: readonly CaveatRule[] = [
     severity: 'info',
     standing: true,
     trigger: 'Always.',
-    find: (input) => once({ cutoff: input.cutoff }),
+    find: (input) => once({ cutoff: input.centredFrom === undefined ? input.cutoff : input.centredFrom }),
     message: (v, input) =>
-      `This describes ${input.population} with scores near ${plainScore(Number(v.cutoff))}. ` +
+      `This describes ${input.population} with scores near ${v.cutoff === null ? 'the cutoff in force each month' : plainScore(Number(v.cutoff))}. ` +
       `It says nothing about ${input.population} far from the cutoff, and moving the cutoff could change the effect.`,
   },
   {
@@ -222,10 +222,15 @@ export const CAVEAT_RULES: readonly CaveatRule[] = [
       const rows = input.findings.placebo;
       if (rows.length === 0) return never;
       const worst = rows.reduce((a, b) => (b.pAdjusted < a.pAdjusted ? b : a));
-      return worst.pAdjusted < 0.05 ? once({ cutoff: worst.cutoff, estimate: worst.estimate, pAdjusted: worst.pAdjusted }) : never;
+      if (!(worst.pAdjusted < 0.05)) return never;
+      const figures = { estimate: worst.estimate, pAdjusted: worst.pAdjusted };
+      // Pooled cohorts have no one score for a false cutoff, only its distance from each month's cutoff.
+      if (input.centredFrom === null) return once({ distance: worst.cutoff, ...figures });
+      return once({ cutoff: worst.cutoff + (input.centredFrom ?? 0), ...figures });
     },
     message: (v) =>
-      `The outcome also jumps at a score of ${plainScore(Number(v.cutoff))}, where nothing changes (jump ${plainNumber(Number(v.estimate))}, adjusted ${plainP(Number(v.pAdjusted))}): ` +
+      `The outcome also jumps ${v.distance === undefined ? `at a score of ${plainScore(Number(v.cutoff))}` : `${plainScore(Math.abs(Number(v.distance)))} points ${Number(v.distance) < 0 ? 'below' : 'above'} the cutoff`}, ` +
+      `where nothing changes (jump ${plainNumber(Number(v.estimate))}, adjusted ${plainP(Number(v.pAdjusted))}): ` +
       'the outcome may change with the score in ways the estimate does not capture.',
   },
 

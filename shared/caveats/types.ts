@@ -39,6 +39,12 @@ export interface CheckNotRun {
 export interface CaveatInput {
   design: 'sharp' | 'fuzzy';
   cutoff: number;
+  /**
+   * Set when the scores are distances from the cutoff (score − cutoff, `cutoff` 0), as the
+   * recompute passes them: the cutoff in the agency's units for one cohort, or null when several
+   * cutoffs are pooled. Messages then speak in the agency's units or of distances.
+   */
+  centredFrom?: number | null;
   eligibleSide: EligibleSide;
   /** Plural noun for the people, e.g. "households". */
   population: string;

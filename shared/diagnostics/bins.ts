@@ -203,14 +203,70 @@ function varies(values: Float64Array): boolean {
 /** Each side's data by distance from the cutoff, ascending. */
 function splitSides(t: Float64Array, y: Float64Array): [SideData, SideData] {
   if (t.length !== y.length) throw new RangeError('binnedMeans: the score and the variable must have the same length');
-  const order = Array.from({ length: t.length }, (_, i) => i).sort((a, b) => Math.abs(t[a]!) - Math.abs(t[b]!));
-  const make = (eligible: boolean): SideData => {
-    const idx = order.filter((i) => (t[i]! >= 0) === eligible);
-    return {
-      distance: Float64Array.from(idx, (i) => Math.abs(t[i]!)),
-      y: Float64Array.from(idx, (i) => y[i]!),
-      t: Float64Array.from(idx, (i) => t[i]!),
-    };
+  const { ineligible, eligible } = sideOrder(t);
+  const make = (idx: Uint32Array): SideData => {
+    const side = { distance: new Float64Array(idx.length), y: new Float64Array(idx.length), t: new Float64Array(idx.length) };
+    for (let k = 0; k < idx.length; k++) {
+      const i = idx[k]!;
+      side.distance[k] = Math.abs(t[i]!);
+      side.y[k] = y[i]!;
+      side.t[k] = t[i]!;
+    }
+    return side;
   };
-  return [make(false), make(true)];
+  return [make(ineligible), make(eligible)];
+}
+
+/**
+ * Indices of each side ordered by distance from the cutoff, ties in index order (as a stable sort
+ * would leave them). A chart orders the same scores eight times (two variables, two spacings, count
+ * and bins), so the order is kept per score array; score arrays are never changed after centring.
+ */
+const sideOrders = new WeakMap<Float64Array, { ineligible: Uint32Array; eligible: Uint32Array }>();
+
+function sideOrder(t: Float64Array): { ineligible: Uint32Array; eligible: Uint32Array } {
+  const cached = sideOrders.get(t);
+  if (cached) return cached;
+  const order = orderByDistance(t);
+  let eligibleCount = 0;
+  for (let i = 0; i < t.length; i++) eligibleCount += +(t[i]! >= 0);
+  const sides = { ineligible: new Uint32Array(t.length - eligibleCount), eligible: new Uint32Array(eligibleCount) };
+  for (let k = 0, a = 0, b = 0; k < order.length; k++) {
+    const i = order[k]!;
+    if (t[i]! >= 0) sides.eligible[b++] = i;
+    else sides.ineligible[a++] = i;
+  }
+  sideOrders.set(t, sides);
+  return sides;
+}
+
+/**
+ * Indices by |t| ascending, ties by index: the distinct distances sorted natively, each entry's
+ * rank found by binary search, then a counting sort on the ranks (stable). Several times faster
+ * than a comparator sort on a million entries.
+ */
+function orderByDistance(t: Float64Array): Uint32Array {
+  const n = t.length;
+  const distance = new Float64Array(n);
+  for (let i = 0; i < n; i++) distance[i] = Math.abs(t[i]!);
+  const sorted = Float64Array.from(distance).sort();
+  let distinct = 0;
+  for (let k = 0; k < n; k++) if (k === 0 || sorted[k] !== sorted[distinct - 1]) sorted[distinct++] = sorted[k]!;
+  const rank = new Uint32Array(n);
+  const starts = new Uint32Array(distinct + 1);
+  for (let i = 0; i < n; i++) {
+    let lo = 0;
+    let hi = distinct - 1;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (sorted[mid]! < distance[i]!) lo = mid + 1;
+      else hi = mid;
+    }
+    rank[i] = lo;
+    starts[lo + 1]! += 1;
+  }
+  for (let r = 0; r < distinct; r++) starts[r + 1]! += starts[r]!;
+  const order = new Uint32Array(n);
+  for (let i = 0; i < n; i++) order[starts[rank[i]!]!++] = i;
+  return order;
 }

@@ -26,14 +26,20 @@ export function reportedEffect(result: DiscontinuityEstimate): ReportedEffect {
 
 /** The rows whose index passes `keep`, as a new data object (take-up and clusters follow). */
 export function subsetRows(data: DiscontinuityData, keep: (i: number) => boolean): DiscontinuityData {
-  const index: number[] = [];
-  for (let i = 0; i < data.score.length; i++) if (keep(i)) index.push(i);
-  const pick = (column: Float64Array) => Float64Array.from(index, (i) => column[i]!);
+  const n = data.score.length;
+  const index = new Uint32Array(n);
+  let kept = 0;
+  for (let i = 0; i < n; i++) if (keep(i)) index[kept++] = i;
+  // Plain loops: TypedArray.from with a mapping function is several times slower on large data.
+  const pick = <T extends Float64Array | Int32Array>(column: T, out: T): T => {
+    for (let k = 0; k < kept; k++) out[k] = column[index[k]!]!;
+    return out;
+  };
   return {
-    score: pick(data.score),
-    outcome: pick(data.outcome),
-    ...(data.takeUp ? { takeUp: pick(data.takeUp) } : {}),
-    ...(data.cluster ? { cluster: Int32Array.from(index, (i) => data.cluster![i]!) } : {}),
+    score: pick(data.score, new Float64Array(kept)),
+    outcome: pick(data.outcome, new Float64Array(kept)),
+    ...(data.takeUp ? { takeUp: pick(data.takeUp, new Float64Array(kept)) } : {}),
+    ...(data.cluster ? { cluster: pick(data.cluster, new Int32Array(kept)) } : {}),
   };
 }
 

@@ -43,7 +43,7 @@ export function runDiagnostics(data: DiagnosticsData, options: DiagnosticsOption
       throw error;
     }
   };
-  const { population = 'applicants', outcomesTested = 1, targetEffect, permutations, start, ...estimation } = options;
+  const { population = 'applicants', outcomesTested = 1, targetEffect, permutations, start, centredFrom, ...estimation } = options;
   const placement = { cutoff: estimation.cutoff, eligibleSide: estimation.eligibleSide };
   const engineData = { score: data.score, outcome: data.outcome, ...(data.takeUp ? { takeUp: data.takeUp } : {}), ...(data.cluster ? { cluster: data.cluster } : {}) };
   const covariates = data.covariates ?? [];
@@ -52,7 +52,12 @@ export function runDiagnostics(data: DiagnosticsData, options: DiagnosticsOption
   const t = centredScore(data.score, estimation.cutoff, estimation.eligibleSide);
 
   const window = main?.bandwidth.h ?? spread(data.score) / 4;
-  const heaping = attempt('score heaping check', () => scoreHeaping(data.score, estimation.cutoff, estimation.eligibleSide, window));
+  // "Round" means round in the agency's units, so one cohort's distances are turned back into scores.
+  const heaping = attempt('score heaping check', () =>
+    typeof centredFrom === 'number'
+      ? scoreHeaping(data.score.map((x) => x + centredFrom), estimation.cutoff + centredFrom, estimation.eligibleSide, window)
+      : scoreHeaping(data.score, estimation.cutoff, estimation.eligibleSide, window),
+  );
   const gridStep = heaping?.step ?? 0;
   const density = attempt('score density check', () => {
     const mccrary = mccraryTest(t, undefined, gridStep);
@@ -97,6 +102,7 @@ export function runDiagnostics(data: DiagnosticsData, options: DiagnosticsOption
   const caveats = applyCaveats({
     design: data.takeUp ? 'fuzzy' : 'sharp',
     cutoff: estimation.cutoff,
+    ...(centredFrom !== undefined ? { centredFrom } : {}),
     eligibleSide: estimation.eligibleSide,
     population,
     outcomesTested,

@@ -42,6 +42,13 @@ export interface DiagnosticsOptions extends DiscontinuityOptions {
   permutations?: number;
   /** Start value of its random stream. Default 1. */
   start?: number;
+  /**
+   * Set when the scores given are distances from the cutoff (score − cutoff) and `cutoff` is 0: the
+   * cutoff in the agency's units (one cohort) or null (cohorts with different cutoffs pooled). The
+   * round-value check then runs on the agency's scores and caveats name them; every position in
+   * the report stays a distance, as given.
+   */
+  centredFrom?: number | null;
 }
 
 /** One point of a density curve for plotting. */

@@ -3,4 +3,4 @@
  * version (`ProvenanceDto.diagnosticsVersion`). Bump it whenever any returned number, rule or
  * message can change.
  */
-export const DIAGNOSTICS_VERSION = '1.1.0';
+export const DIAGNOSTICS_VERSION = '1.2.0';

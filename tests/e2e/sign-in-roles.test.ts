@@ -68,7 +68,7 @@ describe('signing in as each role in Chromium', () => {
   });
 
   for (const role of ROLES) {
-    it(`signs in as the ${role} and shows only what a ${role} may use`, async () => {
+    it(`signs in as the ${role} and shows only what that role may use`, async () => {
       const person = demoPersonFor(role);
       const page = await browser.context.newPage();
       await signInInBrowser(page, server.url, { role });

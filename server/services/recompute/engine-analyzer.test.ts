@@ -6,8 +6,7 @@ import { engineAnalyzer, POOLING_STATEMENT } from './engine-analyzer';
 import { planScopes, type CohortInput } from './scope-plan';
 
 /** Four demo months around the cutoff change (60 until 2025-10, 58 from 2025-11), as one window's arrays. */
-function windowAcrossCutoffChange(): { data: ScopeData; cohorts: CohortInput[] } {
-  const periods = ['2025-09', '2025-10', '2025-11', '2025-12'];
+function windowAcrossCutoffChange(periods = ['2025-09', '2025-10', '2025-11', '2025-12']): { data: ScopeData; cohorts: CohortInput[] } {
   const months = periods.map((p) => generateDemoCohort(p));
   const n = months.reduce((s, m) => s + m.households.length, 0);
   const data: ScopeData = {
@@ -63,6 +62,18 @@ describe('engine analyzer', () => {
     // Diagnostics and caveats come from runDiagnostics; the standing cautions are always there.
     expect(Object.keys(shutoff!.diagnostics ?? {})).toEqual(expect.arrayContaining(['density', 'balance', 'placebo', 'sensitivity', 'donut', 'weakFirstStage', 'bins', 'power']));
     expect(shutoff!.caveats.some((c) => c.severity === 'info')).toBe(true);
+    // Pooled over two cutoffs, the caveats speak of "the cutoff", never of the centred origin 0.
+    expect(shutoff!.caveats.find((c) => c.code === 'local_to_cutoff')!.message).toContain('scores near the cutoff in force each month');
+  });
+
+  it('names the cohort’s own cutoff in its caveats and checks round values on the agency’s scores', () => {
+    const { data, cohorts } = windowAcrossCutoffChange(['2025-11']);
+    const settings = defaultDesignSettings(['shutoff_6m'], []);
+    const [plan] = planScopes(cohorts, { designVersionId: 1, settings, eligibleSide: 'at-or-above', engineVersion: 'x', diagnosticsVersion: null });
+    const [r] = engineAnalyzer.analyze({ scope: plan!, data, settings, eligibleSide: 'at-or-above' });
+    expect(r!.caveats.find((c) => c.code === 'local_to_cutoff')!.message).toMatch(/with scores near 58\./);
+    const heaping = (r!.diagnostics as { heaping: { atCutoff: { score: number } | null } }).heaping;
+    expect(heaping.atCutoff?.score).toBe(58);
   });
 
   it('gives a not-estimable result, not an error, when a side is empty', () => {

@@ -46,7 +46,7 @@ function analyzeOutcome({ scope, data, settings, eligibleSide, labels }: Analyze
   const engineData = { score: rows.centred, outcome: rows.outcome, takeUp: rows.takeUp, cluster: rows.cluster };
   const report = runDiagnostics(
     { ...engineData, covariates: rows.covariates.map((c) => ({ ...c, label: labels?.covariates[c.name] ?? c.name })) },
-    { ...options, population: labels?.population ?? 'applicants', outcomesTested: settings.outcomes.length },
+    { ...options, population: labels?.population ?? 'applicants', outcomesTested: settings.outcomes.length, centredFrom: agencyCutoff(scope) },
   );
   const { caveats: reportCaveats, ...findings } = report;
   const caveats: CaveatDto[] = reportCaveats.map((c) => ({ code: c.code, severity: c.severity, message: c.message, values: c.values }));
@@ -173,6 +173,12 @@ function poolingWeights(centred: Float64Array, cutoffOf: Float64Array, h: number
       share: total > 0 ? (counts.get(cutoff) ?? 0) / total : 0,
     })),
   };
+}
+
+/** The cutoff of a scope whose cohorts share one (so messages can name it); null when they differ. */
+function agencyCutoff(scope: AnalyzeInput['scope']): number | null {
+  const cutoffs = new Set(scope.cohorts.map((c) => c.cutoff));
+  return cutoffs.size === 1 ? [...cutoffs][0]! : null;
 }
 
 function inference(estimate: number, i: { se: number; ciLow: number; ciHigh: number; p: number }): InferenceDto {
