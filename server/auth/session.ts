@@ -47,6 +47,7 @@ export function sessionMiddleware(config: Config, dataSource: DataSource): Reque
     },
     connection as never,
   );
+  throttleTouches(store, TOUCH_INTERVAL_MS);
   return session({
     name: SESSION_COOKIE,
     secret: config.secrets.sessionSecret,
@@ -63,6 +64,29 @@ export function sessionMiddleware(config: Config, dataSource: DataSource): Reque
       path: '/',
     },
   });
+}
+
+/**
+ * How often one process writes a session's renewed idle expiry (ms). express-session touches the
+ * store on every request; writing it at most once a minute per session moves the idle timeout by
+ * at most a minute and spares the database an UPDATE per request.
+ */
+export const TOUCH_INTERVAL_MS = 60_000;
+
+type TouchFn = (sid: string, data: unknown, callback?: (err?: unknown) => void) => void;
+
+function throttleTouches(store: session.Store, intervalMs: number): void {
+  const touch = (store as unknown as { touch?: TouchFn }).touch?.bind(store);
+  if (!touch) return;
+  const lastTouched = new Map<string, number>();
+  (store as unknown as { touch: TouchFn }).touch = (sid, data, callback) => {
+    const now = Date.now();
+    if (now - (lastTouched.get(sid) ?? 0) < intervalMs) return callback?.();
+    // Bounded: entries older than the interval are useless, so the map is emptied when it grows.
+    if (lastTouched.size > 10_000) lastTouched.clear();
+    lastTouched.set(sid, now);
+    touch(sid, data, callback);
+  };
 }
 
 /** Whether the request carries Cutline's session cookie at all. */

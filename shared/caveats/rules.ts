@@ -32,9 +32,9 @@ export const CAVEAT_RULES: readonly CaveatRule[] = [
     severity: 'info',
     standing: true,
     trigger: 'Always.',
-    find: (input) => once({ cutoff: input.centredFrom === undefined ? input.cutoff : input.centredFrom }),
+    find: (input) => once(input.centredFrom === null ? {} : { cutoff: input.centredFrom ?? input.cutoff }),
     message: (v, input) =>
-      `This describes ${input.population} with scores near ${v.cutoff === null ? 'the cutoff in force each month' : plainScore(Number(v.cutoff))}. ` +
+      `This describes ${input.population} with scores near ${v.cutoff === undefined ? 'the cutoff in force each month' : plainScore(Number(v.cutoff))}. ` +
       `It says nothing about ${input.population} far from the cutoff, and moving the cutoff could change the effect.`,
   },
   {

@@ -3,6 +3,7 @@
  * callable alone. See DEVELOPERS.md, "Diagnostics and caveats".
  */
 export { runDiagnostics } from './run-diagnostics';
+export { createDiagnosticsMemo, type DiagnosticsMemo } from './memo';
 export { DIAGNOSTICS_VERSION } from './version';
 export { DiagnosticError, DIAGNOSTIC_ERROR_CODES, isDiagnosticError, type DiagnosticErrorCode } from './errors';
 export { centredScore, scoreAt } from './centred-score';

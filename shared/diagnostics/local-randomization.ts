@@ -20,6 +20,24 @@ export interface LocalRandomizationOptions {
   balanceP?: number;
   /** Confidence level of the effect interval. Default 0.95. */
   level?: number;
+  /**
+   * Work kept between calls on the same scores and covariates with the same permutations and start
+   * (`newLocalRandomizationShare`): neither the windows' balance nor the relabellings depend on the
+   * outcome, so one scope's outcomes draw them once.
+   */
+  share?: LocalRandomizationShare;
+}
+
+/** See `LocalRandomizationOptions.share`. */
+export interface LocalRandomizationShare {
+  /** Smallest covariate balance p by window. */
+  balances: Map<number, number>;
+  /** Relabellings by window and start. */
+  relabellings: Map<string, Relabellings>;
+}
+
+export function newLocalRandomizationShare(): LocalRandomizationShare {
+  return { balances: new Map(), relabellings: new Map() };
 }
 
 export interface WindowBalance {
@@ -98,8 +116,12 @@ export function localRandomization(
     const counts = sideCounts(t, inside);
     let minP: number | null = null;
     if (covariates.length > 0 && passedSoFar) {
-      const draws = relabellings(t, inside, permutations, options.start ?? 1);
-      minP = Math.min(...covariates.map((x) => permutationP(draws, x)));
+      minP = options.share?.balances.get(windows[w]!) ?? null;
+      if (minP === null) {
+        const draws = relabellings(t, inside, permutations, options.start ?? 1);
+        minP = Math.min(...covariates.map((x) => permutationP(draws, x)));
+        options.share?.balances.set(windows[w]!, minP);
+      }
       if (minP > balanceP) chosen = w;
       else passedSoFar = false;
     }
@@ -110,7 +132,9 @@ export function localRandomization(
   const window = windows[windowRule === 'covariate-balance' ? chosen : 0]!;
   const inside = indicesWithin(t, window);
   const counts = sideCounts(t, inside);
-  const draws = relabellings(t, inside, permutations, options.start ?? 2);
+  const drawKey = `${window}|${options.start ?? 2}`;
+  const draws = options.share?.relabellings.get(drawKey) ?? relabellings(t, inside, permutations, options.start ?? 2);
+  options.share?.relabellings.set(drawKey, draws);
   // Sharp design: D is eligibility itself, so the same interval code applies (its difference is 1).
   const d = data.takeUp ?? Float64Array.from(t, (v) => +(v >= 0));
   const itt = draws.observed(data.outcome);
@@ -136,7 +160,7 @@ export function localRandomization(
 }
 
 /** The relabellings of one window: for each, which positions inside the window count as eligible. */
-interface Relabellings {
+export interface Relabellings {
   count: number;
   exact: boolean;
   /** Difference in means (eligible − ineligible) of `values` under the observed labels. */
@@ -252,20 +276,30 @@ function spread(values: Float64Array): number {
   return Math.sqrt(Math.max(0, s2 / values.length - mean * mean));
 }
 
-/** Nested windows: distinct distances (discrete scores) or a geometric grid, each with ≥ 10 per side. */
+/**
+ * Nested windows up to `maxWindow`, each with ≥ 10 per side: the distinct distances when at most 20
+ * lie there (discrete scores), else a geometric grid of 20 from the smallest window to the farthest
+ * score, cut at `maxWindow`. The grid does not depend on `maxWindow`, so the outcomes of one scope
+ * (each with its own bandwidth) share their windows' balance checks.
+ */
 function candidateWindows(t: Float64Array, maxWindow: number): number[] {
   const below = Float64Array.from(t.filter((v) => v < 0), (v) => -v).sort();
   const above = Float64Array.from(t.filter((v) => v >= 0)).sort();
   if (below.length < MIN_WINDOW_PER_SIDE || above.length < MIN_WINDOW_PER_SIDE) return [];
   const smallest = Math.max(below[MIN_WINDOW_PER_SIDE - 1]!, above[MIN_WINDOW_PER_SIDE - 1]!);
-  const largest = Math.min(maxWindow, Math.max(below[below.length - 1]!, above[above.length - 1]!));
+  const farthest = Math.max(below[below.length - 1]!, above[above.length - 1]!);
+  const largest = Math.min(maxWindow, farthest);
   if (smallest > largest) return [];
   const distinct = [...new Set([...below, ...above])].filter((v) => v >= smallest && v <= largest).sort((x, y) => x - y);
   if (distinct.length <= MAX_WINDOWS) return distinct;
+  return geometricGrid(smallest, farthest).filter((w) => w <= largest);
+}
+
+function geometricGrid(from: number, to: number): number[] {
+  const ratio = Math.pow(to / from, 1 / (MAX_WINDOWS - 1));
   const out: number[] = [];
-  const ratio = Math.pow(largest / smallest, 1 / (MAX_WINDOWS - 1));
-  for (let k = 0; k < MAX_WINDOWS; k++) out.push(smallest * Math.pow(ratio, k));
-  out[MAX_WINDOWS - 1] = largest;
+  for (let k = 0; k < MAX_WINDOWS - 1; k++) out.push(from * Math.pow(ratio, k));
+  out.push(to);
   return out;
 }
 

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { DEMO_HEAPING_PERIOD, DEMO_WEAK_TAKE_UP_PERIOD, generateDemoCohort } from '../demo/heating-credit';
+import { createDiagnosticsMemo } from './memo';
 import { runDiagnostics } from './run-diagnostics';
 import type { DiagnosticsData } from './types';
 
@@ -21,6 +22,21 @@ function demoData(period: string): { data: DiagnosticsData; cutoff: number } {
 }
 
 describe('runDiagnostics', () => {
+  it('gives the same report with a memo shared between the outcomes of one scope as without it (identity)', () => {
+    const { data, cutoff } = demoData('2025-08');
+    const cohort = generateDemoCohort('2025-08');
+    const arrears = Float64Array.from(cohort.households, (h) => h.arrears_months);
+    const options = { cutoff, eligibleSide: 'at-or-above' as const, population: 'households', permutations: 500 };
+    const memo = createDiagnosticsMemo();
+    const shared = [runDiagnostics(data, options, memo), runDiagnostics({ ...data, outcome: arrears }, options, memo)];
+    expect(memo.entries.size).toBeGreaterThan(0);
+    expect(shared[0]).toEqual(runDiagnostics(data, options));
+    expect(shared[1]).toEqual(runDiagnostics({ ...data, outcome: arrears }, options));
+    // Other scores under the same memo are not mistaken for the first ones.
+    const shifted = { ...data, score: data.score.map((x) => x + 1) };
+    expect(runDiagnostics(shifted, { ...options, cutoff: cutoff + 1 }, memo)).toEqual(runDiagnostics(shifted, { ...options, cutoff: cutoff + 1 }));
+  });
+
   it('returns exactly the documented keys, as plain JSON', () => {
     const { data, cutoff } = demoData('2025-08');
     const report = runDiagnostics(data, { cutoff, eligibleSide: 'at-or-above', population: 'households', permutations: 500 });

@@ -11,7 +11,8 @@ import { densityPlot } from './density-plot';
 import { donutEstimates, donutRadii } from './donut';
 import { isDiagnosticError } from './errors';
 import { scoreHeaping } from './heaping';
-import { localRandomization } from './local-randomization';
+import { localRandomization, newLocalRandomizationShare } from './local-randomization';
+import { remember, type DiagnosticsMemo } from './memo';
 import { placeboCutoffs } from './placebo';
 import { localLinearDesignEffect, minimumDetectableEffect, sampleForEffect } from './power';
 import { bandwidthSensitivity } from './sensitivity';
@@ -28,9 +29,12 @@ import { weakFirstStage } from './weak-first-stage';
  * named in a `check_not_run` caveat, so one failure never hides the rest. Argument mistakes
  * (wrong types, bad options) throw as in the engine.
  *
+ * `memo` (optional) shares the outcome-independent work between calls on the same applicants
+ * (`createDiagnosticsMemo`, one per scope); results are the same with or without it.
+ *
  * @example runDiagnostics({ score, outcome, takeUp, covariates: [{ name: 'household_size', values }] }, { cutoff: 60, eligibleSide: 'at-or-above', population: 'households' })
  */
-export function runDiagnostics(data: DiagnosticsData, options: DiagnosticsOptions): DiagnosticsReport {
+export function runDiagnostics(data: DiagnosticsData, options: DiagnosticsOptions, memo?: DiagnosticsMemo): DiagnosticsReport {
   const notRun: CheckNotRun[] = [];
   const attempt = <T>(check: string, run: () => T): T | null => {
     try {
@@ -49,7 +53,8 @@ export function runDiagnostics(data: DiagnosticsData, options: DiagnosticsOption
   const covariates = data.covariates ?? [];
 
   const main = attempt('main estimate', () => estimateDiscontinuity(engineData, estimation));
-  const t = centredScore(data.score, estimation.cutoff, estimation.eligibleSide);
+  const t = remember(memo, 'centred score', [data.score, estimation.cutoff, estimation.eligibleSide], () => centredScore(data.score, estimation.cutoff, estimation.eligibleSide));
+  const covariateArrays = covariates.flatMap((c) => [c.name, c.label, c.values]);
 
   const window = main?.bandwidth.h ?? spread(data.score) / 4;
   // "Round" means round in the agency's units, so one cohort's distances are turned back into scores.
@@ -59,12 +64,17 @@ export function runDiagnostics(data: DiagnosticsData, options: DiagnosticsOption
       : scoreHeaping(data.score, estimation.cutoff, estimation.eligibleSide, window),
   );
   const gridStep = heaping?.step ?? 0;
-  const density = attempt('score density check', () => {
-    const mccrary = mccraryTest(t, undefined, gridStep);
-    return { mccrary, localPolynomial: localPolynomialDensityTest(t, mccrary.h), plot: densityPlot(t, mccrary.h, placement, gridStep) };
-  });
+  const density = attempt('score density check', () =>
+    remember(memo, 'density', [t, gridStep], () => {
+      const mccrary = mccraryTest(t, undefined, gridStep);
+      return { mccrary, localPolynomial: localPolynomialDensityTest(t, mccrary.h), plot: densityPlot(t, mccrary.h, placement, gridStep) };
+    }),
+  );
 
-  const balance = covariates.length > 0 ? covariateBalance(data.score, covariates, estimation, data.cluster) : { rows: [], failures: [] };
+  const balance =
+    covariates.length > 0
+      ? remember(memo, 'balance', [data.score, data.cluster, JSON.stringify(estimation), ...covariateArrays], () => covariateBalance(data.score, covariates, estimation, data.cluster))
+      : { rows: [], failures: [] };
   for (const f of balance.failures) {
     if (isEstimationError(f.error)) notRun.push({ check: `balance check of ${covariates.find((c) => c.name === f.covariate)?.label ?? f.covariate}`, code: f.error.code, reason: f.error.message });
     else throw f.error;
@@ -76,7 +86,13 @@ export function runDiagnostics(data: DiagnosticsData, options: DiagnosticsOption
   const localRandom = attempt('local-randomization comparison', () =>
     localRandomization(
       { t, outcome: data.outcome, ...(data.takeUp ? { takeUp: data.takeUp } : {}), covariates: covariates.map((c) => c.values) },
-      { ...(main ? { maxWindow: main.bandwidth.h } : {}), ...(permutations ? { permutations } : {}), ...(start !== undefined ? { start } : {}), level: main?.options.level ?? 0.95 },
+      {
+        ...(main ? { maxWindow: main.bandwidth.h } : {}),
+        ...(permutations ? { permutations } : {}),
+        ...(start !== undefined ? { start } : {}),
+        level: main?.options.level ?? 0.95,
+        share: remember(memo, 'local randomization', [t, permutations, start, ...covariateArrays], newLocalRandomizationShare),
+      },
     ),
   );
   const chart = (values: Float64Array): ChartSeries => ({

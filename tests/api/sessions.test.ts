@@ -94,6 +94,20 @@ describe('sessions, CSRF and cross-program access', () => {
       expect(res.body.error.code).toBe('session_expired');
     });
 
+    it('renews the stored idle expiry on use, writing it at most once a minute per session', async () => {
+      const agent = await signIn(t, { role: 'manager', programId: programA });
+      const sessionId = await currentSessionId(agent);
+      const sessions = db.dataSource.getRepository(HttpSession);
+      const soon = Math.floor(Date.now() / 1000) + 100;
+      await sessions.update({ sessionId }, { expires: soon });
+      await agent.get('/api/me').expect(200);
+      const renewed = (await sessions.findOneByOrFail({ sessionId })).expires;
+      expect(renewed).toBeGreaterThan(soon + 60);
+      await sessions.update({ sessionId }, { expires: soon });
+      await agent.get('/api/me').expect(200);
+      expect((await sessions.findOneByOrFail({ sessionId })).expires).toBe(soon);
+    });
+
     it('ends a session at the absolute timeout even while it is in use', async () => {
       const agent = await signIn(t, { role: 'manager', programId: programA });
       const sessionId = await currentSessionId(agent);

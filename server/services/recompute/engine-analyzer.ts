@@ -1,5 +1,5 @@
 import type { CaveatDto, EstimateDto, InferenceDto, PoolingDto } from '@shared/api/results';
-import { DIAGNOSTICS_VERSION, runDiagnostics, type NamedColumn } from '@shared/diagnostics';
+import { createDiagnosticsMemo, DIAGNOSTICS_VERSION, runDiagnostics, type DiagnosticsMemo, type NamedColumn } from '@shared/diagnostics';
 import { ENGINE_VERSION, estimateDiscontinuity, isEstimationError, type DiscontinuityEstimate, type DiscontinuityOptions } from '@shared/estimation';
 import type { DesignSettings } from '@shared/schemas/design';
 import type { StoredFigures } from '../../entities/estimate-result.entity';
@@ -22,17 +22,26 @@ export const engineAnalyzer: Analyzer = {
   engineVersion: ENGINE_VERSION,
   diagnosticsVersion: DIAGNOSTICS_VERSION,
   analyze(input: AnalyzeInput): AnalyzedOutcome[] {
-    return input.settings.outcomes.map((key) => analyzeOutcome(input, key));
+    // The outcomes of a scope share their applicants: rows and outcome-independent diagnostics are kept between them.
+    const shared: ScopeShared = { memo: createDiagnosticsMemo(), rows: [] };
+    return input.settings.outcomes.map((key) => analyzeOutcome(input, key, shared));
   },
 };
 
-function analyzeOutcome({ scope, data, settings, eligibleSide, labels }: AnalyzeInput, outcomeKey: string): AnalyzedOutcome {
+/** What the outcomes of one scope share. */
+interface ScopeShared {
+  memo: DiagnosticsMemo;
+  /** Rows selected so far, by the mask of kept rows (outcomes with the same gaps keep the same rows). */
+  rows: Array<{ keep: Uint8Array; rows: SelectedRows }>;
+}
+
+function analyzeOutcome({ scope, data, settings, eligibleSide, labels }: AnalyzeInput, outcomeKey: string, shared: ScopeShared): AnalyzedOutcome {
   const outcome = data.outcomes[outcomeKey];
   const empty: StoredFigures = { level: settings.level, problem: null, firstStage: null, itt: null, effect: null, bandwidth: null, n: null, pooling: null };
   if (!outcome) {
     return notEstimable(outcomeKey, empty, 'outcome_not_loaded', 'No accepted extract of these months maps this outcome.');
   }
-  const rows = selectRows(data, outcome, settings);
+  const rows = selectRows(data, outcome, settings, shared);
   const bins = plotBins(rows.centred, rows.outcome, rows.takeUp ?? null, eligibleSide);
   const options: DiscontinuityOptions = {
     cutoff: 0,
@@ -47,6 +56,7 @@ function analyzeOutcome({ scope, data, settings, eligibleSide, labels }: Analyze
   const report = runDiagnostics(
     { ...engineData, covariates: rows.covariates.map((c) => ({ ...c, label: labels?.covariates[c.name] ?? c.name })) },
     { ...options, population: labels?.population ?? 'applicants', outcomesTested: settings.outcomes.length, centredFrom: agencyCutoff(scope) },
+    shared.memo,
   );
   const { caveats: reportCaveats, ...findings } = report;
   const caveats: CaveatDto[] = reportCaveats.map((c) => ({ code: c.code, severity: c.severity, message: c.message, values: c.values }));
@@ -103,8 +113,12 @@ interface SelectedRows {
   droppedByDonut: number;
 }
 
-/** Rows with every value the estimate needs, outside the donut. */
-function selectRows(data: ScopeData, outcome: Float64Array, settings: DesignSettings): SelectedRows {
+/**
+ * Rows with every value the estimate needs, outside the donut. When an earlier outcome of the scope
+ * kept exactly the same rows, its arrays are reused (only the outcome is picked anew), so the
+ * diagnostics' memo recognises the same applicants.
+ */
+function selectRows(data: ScopeData, outcome: Float64Array, settings: DesignSettings, shared: ScopeShared): SelectedRows {
   const clustered = settings.cluster === 'cluster-column' && data.cluster !== null;
   const keep = new Uint8Array(data.n);
   let kept = 0;
@@ -126,6 +140,8 @@ function selectRows(data: ScopeData, outcome: Float64Array, settings: DesignSett
     for (let i = 0, j = 0; i < data.n; i++) if (keep[i]) out[j++] = col[i]!;
     return out;
   };
+  const same = shared.rows.find((r) => sameMask(r.keep, keep));
+  if (same) return { ...same.rows, outcome: pick(outcome) };
   let cluster: Int32Array | undefined;
   if (clustered) {
     cluster = new Int32Array(kept);
@@ -138,7 +154,7 @@ function selectRows(data: ScopeData, outcome: Float64Array, settings: DesignSett
     const values = pick(col);
     if (values.every((v) => Number.isFinite(v))) covariates.push({ name, values });
   }
-  return {
+  const rows: SelectedRows = {
     covariates,
     centred: pick(data.centred),
     cutoffOf: pick(data.cutoffOf),
@@ -147,6 +163,14 @@ function selectRows(data: ScopeData, outcome: Float64Array, settings: DesignSett
     cluster,
     droppedByDonut,
   };
+  shared.rows.push({ keep, rows });
+  return rows;
+}
+
+function sameMask(a: Uint8Array, b: Uint8Array): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
 }
 
 /**
