@@ -2,6 +2,7 @@ import 'reflect-metadata';
 import { loadConfig } from '@server/config/env';
 import { createDataSource } from '@server/db/data-source';
 import { createLogger } from '@server/lib/logger';
+import { pooledEngineAnalyzer } from '@server/services/recompute/analyzer-pool';
 import { defaultRecomputeDeps } from '@server/services/recompute/default-deps';
 import { executeRun } from '@server/services/recompute/run-recompute';
 
@@ -17,6 +18,8 @@ async function main(): Promise<void> {
   await dataSource.initialize();
   const deps = {
     ...defaultRecomputeDeps({ dataSource, config, logger: createLogger('silent') }),
+    // One worker, so nothing else progresses while the first scope's hook holds.
+    analyzer: pooledEngineAnalyzer(1),
     afterScope: async () => {
       process.stdout.write('HOLDING\n');
       await new Promise(() => undefined); // until killed

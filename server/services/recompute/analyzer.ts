@@ -44,5 +44,7 @@ export interface AnalyzeInput {
 export interface Analyzer {
   engineVersion: string;
   diagnosticsVersion: string | null;
-  analyze(input: AnalyzeInput): AnalyzedOutcome[];
+  /** Scopes it can analyse at once (worker threads); 1 when absent. */
+  parallelism?: number;
+  analyze(input: AnalyzeInput): AnalyzedOutcome[] | Promise<AnalyzedOutcome[]>;
 }

@@ -18,7 +18,7 @@ export const POOLING_STATEMENT =
  * diagnostic and the caveats they imply (`runDiagnostics`), with the design's balance covariates.
  * Data that admit no estimate give a `not-estimable` result, not a failure.
  */
-export const engineAnalyzer: Analyzer = {
+export const engineAnalyzer = {
   engineVersion: ENGINE_VERSION,
   diagnosticsVersion: DIAGNOSTICS_VERSION,
   analyze(input: AnalyzeInput): AnalyzedOutcome[] {
@@ -26,7 +26,7 @@ export const engineAnalyzer: Analyzer = {
     const shared: ScopeShared = { memo: createDiagnosticsMemo(), rows: [] };
     return input.settings.outcomes.map((key) => analyzeOutcome(input, key, shared));
   },
-};
+} satisfies Analyzer;
 
 /** What the outcomes of one scope share. */
 interface ScopeShared {

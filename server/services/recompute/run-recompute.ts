@@ -147,15 +147,18 @@ async function compute(deps: RecomputeDeps, run: RecomputeRun, report: RunReport
   const covariateDefs = await ds.getRepository(CovariateDefinition).findBy({ programId: program.id });
   const labels = { population: program.populationLabel, covariates: Object.fromEntries(covariateDefs.map((c) => [c.key, c.label.toLowerCase()])) };
   const computed: Array<{ plan: PlannedScope; outcomes: AnalyzedOutcome[] }> = [];
-  for (const [i, plan] of todo.entries()) {
+  const computeStart = performance.now();
+  let done = 0;
+  // Scopes are independent: as many are analysed at once as the analyzer has workers.
+  await forEachAtOnce(todo, deps.analyzer.parallelism ?? 1, async (plan) => {
     await runs.update({ id: run.id }, { progressCurrent: plan.scope.key });
-    const t0 = performance.now();
     const data = sliceScope(loaded!, plan.scope.periods.map((p) => p.period));
-    computed.push({ plan, outcomes: deps.analyzer.analyze({ scope: plan, data, settings: version.settings, eligibleSide: program.eligibleSide, labels }) });
-    report.computeMs += performance.now() - t0;
-    await runs.update({ id: run.id }, { progressDone: i + 1 });
-    await deps.afterScope?.({ runId: run.id, done: i + 1, total: todo.length, scopeKey: plan.scope.key });
-  }
+    computed.push({ plan, outcomes: await deps.analyzer.analyze({ scope: plan, data, settings: version.settings, eligibleSide: program.eligibleSide, labels }) });
+    done += 1;
+    await runs.update({ id: run.id }, { progressDone: done });
+    await deps.afterScope?.({ runId: run.id, done, total: todo.length, scopeKey: plan.scope.key });
+  });
+  report.computeMs = performance.now() - computeStart;
 
   const writeStart = performance.now();
   const computedAt = deps.now();
@@ -237,4 +240,22 @@ function staleReason(r: Pick<EstimateResult, 'designVersion' | 'provenance'>, de
 function describeError(err: unknown): { code: string; message: string } {
   if (err instanceof AppError) return { code: err.code, message: err.message };
   return { code: 'recompute_failed', message: 'The recompute failed; the previous results were kept and marked stale. It is retried automatically; the error has been logged.' };
+}
+
+/** Runs `work` on every item, at most `limit` at a time, in order of the items; the first failure rejects (after the started ones end). */
+async function forEachAtOnce<T>(items: readonly T[], limit: number, work: (item: T) => Promise<void>): Promise<void> {
+  let next = 0;
+  let failure: unknown = null;
+  const lane = async () => {
+    while (next < items.length && failure === null) {
+      const item = items[next++]!;
+      try {
+        await work(item);
+      } catch (err) {
+        failure ??= err;
+      }
+    }
+  };
+  await Promise.all(Array.from({ length: Math.max(1, Math.min(limit, items.length)) }, lane));
+  if (failure !== null) throw failure;
 }
