@@ -25,7 +25,8 @@ export function createDataSource(db: Config['db']): DataSource {
     synchronize: false,
     namingStrategy: new SnakeNamingStrategy(),
     logging: ['error'],
-    extra: { connectionLimit: 10, decimalNumbers: true },
+    // trace: false — mysql2 otherwise captures a stack trace for every query, a measurable share of each API answer.
+    extra: { connectionLimit: 10, decimalNumbers: true, trace: false },
   });
 }
 

@@ -7,7 +7,7 @@ import { idParam, parse } from '../http/validate';
 import { CaveatAcknowledgeSchema } from '@shared/schemas/caveat-acknowledgement';
 import { actorOf } from '../http/current-user';
 import { acknowledgeCaveat } from '../services/caveat-acknowledgements.service';
-import { cachedResultsJson } from '../services/results-cache';
+import { cachedResultsJson, sendCachedJson } from '../services/results-cache';
 import { getCohortDetail, getCohortTrend, getResultsOverview } from '../services/results.service';
 
 const TrendQuerySchema = z.object({ outcome: VariableKeySchema });
@@ -20,7 +20,7 @@ export function resultRoutes(ctx: AppContext): Router {
     allow({ kind: 'roles', roles: ['admin', 'analyst', 'manager', 'evaluator', 'director'], scope: 'program' }),
     async (req, res) => {
       const programId = idParam(req.params.programId, 'Program id');
-      res.type('json').send(await cachedResultsJson(ctx.dataSource, programId, 'overview', () => getResultsOverview(ctx.dataSource, programId)));
+      sendCachedJson(req, res, await cachedResultsJson(ctx.dataSource, programId, 'overview', () => getResultsOverview(ctx.dataSource, programId)));
     },
   );
   router.get(
@@ -29,7 +29,7 @@ export function resultRoutes(ctx: AppContext): Router {
     async (req, res) => {
       const q = parse(TrendQuerySchema, req.query);
       const programId = idParam(req.params.programId, 'Program id');
-      res.type('json').send(await cachedResultsJson(ctx.dataSource, programId, `trend:${q.outcome}`, () => getCohortTrend(ctx.dataSource, programId, q.outcome)));
+      sendCachedJson(req, res, await cachedResultsJson(ctx.dataSource, programId, `trend:${q.outcome}`, () => getCohortTrend(ctx.dataSource, programId, q.outcome)));
     },
   );
   router.get(
@@ -38,7 +38,7 @@ export function resultRoutes(ctx: AppContext): Router {
     async (req, res) => {
       const period = parse(PeriodSchema, req.params.period);
       const programId = idParam(req.params.programId, 'Program id');
-      res.type('json').send(await cachedResultsJson(ctx.dataSource, programId, `cohort:${period}`, () => getCohortDetail(ctx.dataSource, programId, period)));
+      sendCachedJson(req, res, await cachedResultsJson(ctx.dataSource, programId, `cohort:${period}`, () => getCohortDetail(ctx.dataSource, programId, period)));
     },
   );
   router.post('/programs/:programId/results/:resultId/acknowledgements', allow({ kind: 'roles', roles: ['manager'], scope: 'program' }), async (req, res) => {

@@ -1,3 +1,5 @@
+import { createHash } from 'node:crypto';
+import type { Request, Response } from 'express';
 import type { DataSource } from 'typeorm';
 
 /**
@@ -10,7 +12,7 @@ import type { DataSource } from 'typeorm';
  * any process, changes the stamp, so no process needs to be told; a stale entry is never served.
  */
 const MAX_ENTRIES = 500;
-const entries = new Map<string, { stamp: string; body: string }>();
+const entries = new Map<string, { stamp: string; answer: CachedJson }>();
 
 export async function resultsStamp(ds: DataSource, programId: number): Promise<string> {
   const [row] = (await ds.query(
@@ -26,17 +28,35 @@ export async function resultsStamp(ds: DataSource, programId: number): Promise<s
   return JSON.stringify(row ?? {});
 }
 
+/** A cached answer: the JSON bytes and their entity tag. */
+export interface CachedJson {
+  body: Buffer;
+  etag: string;
+}
+
 /**
- * The JSON text of `compute()` for `key`, from the cache while the program's stamp holds.
+ * The JSON of `compute()` for `key`, from the cache while the program's stamp holds, with a weak
+ * entity tag made once per entry (hashing the body on every answer cost more than the lookup).
  * Errors are not cached.
  */
-export async function cachedResultsJson(ds: DataSource, programId: number, key: string, compute: () => Promise<unknown>): Promise<string> {
+export async function cachedResultsJson(ds: DataSource, programId: number, key: string, compute: () => Promise<unknown>): Promise<CachedJson> {
   const stamp = await resultsStamp(ds, programId);
   const cacheKey = `${ds.options.database ?? ''}:${programId}:${key}`;
   const hit = entries.get(cacheKey);
-  if (hit && hit.stamp === stamp) return hit.body;
-  const body = JSON.stringify(await compute());
+  if (hit && hit.stamp === stamp) return hit.answer;
+  const body = Buffer.from(JSON.stringify(await compute()));
+  const answer = { body, etag: `W/"${createHash('sha1').update(body).digest('base64url')}"` };
   if (entries.size >= MAX_ENTRIES) entries.delete(entries.keys().next().value!);
-  entries.set(cacheKey, { stamp, body });
-  return body;
+  entries.set(cacheKey, { stamp, answer });
+  return answer;
+}
+
+/** Sends a cached answer, or 304 when the browser already holds it. */
+export function sendCachedJson(req: Request, res: Response, answer: CachedJson): void {
+  res.set('ETag', answer.etag).type('json');
+  if (req.fresh) {
+    res.status(304).end();
+    return;
+  }
+  res.send(answer.body);
 }

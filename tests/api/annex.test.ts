@@ -158,7 +158,7 @@ describe('technical annex', () => {
       }
       expect(row.get('Kernel')!.value).toBe('triangular');
       expect(row.get('Order p')!.value).toBe(1);
-      expect(row.get('Variance estimator')!.value).toBe('nearest-neighbour');
+      expect(row.get('Variance estimator')!.value).toBe('hc3');
       if (dto!.scope.kind === 'cohort') expect(row.get('Cutoff (score)')!.value).toBe(dto!.scope.periods[0]!.cutoff);
     }
     expect(compared).toBeGreaterThan(12 * 30);

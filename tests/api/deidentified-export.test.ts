@@ -115,7 +115,7 @@ describe('the de-identified export and reproducing the annex from it', () => {
   it('reproduces a cohort’s estimate and robust interval with the command line and the design on the Cover sheet', async () => {
     const wb = await annex();
     const settings = coverSettings(wb.getWorksheet('Cover')!);
-    expect(settings).toMatchObject({ kernel: 'triangular', order: 1, bandwidthRule: 'mse', variance: 'nearest-neighbour', level: 0.95, donutRadius: 0 });
+    expect(settings).toMatchObject({ kernel: 'triangular', order: 1, bandwidthRule: 'mse', variance: 'hc3', level: 0.95, donutRadius: 0 });
     const row = summaryRow(wb, 'cohort:2025-10', 'shutoff_6m');
     const file = await saveExport('2025-10', '2025-10');
     const args = ['--input', file, '--score', 'score', '--cutoff', String(row.get('Cutoff (score)')!.value), '--eligible', 'at-or-above', '--outcome', 'shutoff_6m', '--takeup', 'take_up', ...designFlags(settings)];
