@@ -44,7 +44,7 @@ function SettingsForm({ sub }: { sub: SubscriptionDto }) {
           <label>
             <span className={fieldLabel}>When</span>
             <select className={field} {...register('schedule.cadence')}>
-              <option value="first-working-day">First working day of the month</option>
+              <option value="first-working-day">First working day</option>
               <option value="day-of-month">A day of the month</option>
               <option value="weekly">Every week</option>
             </select>
