@@ -106,6 +106,12 @@ export async function getCohortTrend(ds: DataSource, programId: number, outcomeK
   };
 }
 
+/** The stored diagnostics and plot bins of some results (a pooled window's, say), by result id. */
+export async function resultDetails(ds: DataSource, resultIds: readonly number[]): Promise<Map<number, Pick<OutcomeResultDetailDto, 'diagnostics' | 'bins'>>> {
+  const details = resultIds.length === 0 ? [] : await ds.getRepository(EstimateResultDetail).findBy(resultIds.map((resultId) => ({ resultId })));
+  return new Map(details.map((d) => [d.resultId, { diagnostics: d.diagnostics ?? null, bins: d.bins ?? [] }]));
+}
+
 /** One cohort: every outcome's estimates, diagnostics, caveats, bins and deviations. */
 export async function getCohortDetail(ds: DataSource, programId: number, period: string): Promise<CohortDetailDto> {
   const primary = await requirePrimary(ds, programId);

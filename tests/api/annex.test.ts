@@ -171,7 +171,7 @@ describe('technical annex', () => {
     });
   });
 
-  it('lists the diagnostics, chart points and caveats of every cohort', async () => {
+  it('lists the diagnostics, chart points and caveats of every cohort and pooled window', async () => {
     const res = await download(evaluator, `/api/programs/${programId}/annex`).expect(200);
     const wb = await open(res.body as Buffer);
     const bins = tableRows(wb.getWorksheet('Binned data')!);
@@ -195,6 +195,8 @@ describe('technical annex', () => {
     const apiBalance = detail.outcomes.flatMap((o) => ((o.diagnostics?.balance ?? []) as Array<{ covariate: string; jump: number; pAdjusted: number }>).map((b) => ({ outcome: o.outcome.key, ...b })));
     expect(apiBalance.length).toBeGreaterThan(0);
     expect(balance.map((b) => [b.get('Outcome')!.value, b.get('Covariate')!.value, b.get('Jump')!.value, b.get('Holm-adjusted p')!.value])).toEqual(apiBalance.map((b) => [b.outcome, b.covariate, b.jump, b.pAdjusted]));
+    // Pooled windows carry their stored diagnostics too.
+    expect(tableRows(diagnostics, balanceHeader).some((b) => String(b.get('Scope')!.value).startsWith('window:'))).toBe(true);
     const fits = bins.filter((b) => b.get('Scope')!.value === 'cohort:2025-04' && b.get('Chart')!.value === 'outcome, fitted line');
     expect(fits.length).toBeGreaterThan(0);
     const caveats = tableRows(wb.getWorksheet('Caveats')!);

@@ -8,7 +8,7 @@ import { AppError } from '../../lib/errors';
 import { getDesign } from '../designs.service';
 import { getProgram } from '../programs.service';
 import { clusterExported, exportColumns } from '../deidentified-export/export-columns';
-import { getCohortDetail, getCohortTrend, getResultsOverview } from '../results.service';
+import { getCohortDetail, getCohortTrend, getResultsOverview, resultDetails } from '../results.service';
 import { extractMappings } from './extract-mappings';
 
 /** What the recompute stores of a `DiagnosticsReport`: every finding; the caveats are on the result itself. */
@@ -102,9 +102,11 @@ export async function gatherAnnexContent(ds: DataSource, programId: number, requ
     const windows: OutcomeResultDto[] = [];
     for (const key of outcomeOrder) windows.push(...(await getCohortTrend(ds, programId, key)).windows);
     windows.sort((a, b) => windowRank(a.scope.key) - windowRank(b.scope.key) || outcomeOrder.indexOf(a.outcome.key) - outcomeOrder.indexOf(b.outcome.key));
+    const details = await resultDetails(ds, windows.map((w) => w.id));
     for (const w of windows) {
       const deviations = design.deviations.filter((d) => d.toVersion <= w.provenance.designVersion).sort((a, b) => a.toVersion - b.toVersion);
-      results.push({ result: w, diagnostics: null, bins: [], deviations, settings: settingsOf(w.provenance.designVersion) });
+      const detail = details.get(w.id);
+      results.push({ result: w, diagnostics: asDiagnosticsReport(detail?.diagnostics ?? null), bins: detail?.bins ?? [], deviations, settings: settingsOf(w.provenance.designVersion) });
     }
   }
   if (results.length === 0) {

@@ -14,8 +14,8 @@ const scopeColumns = <T>(): Array<ColumnSpec<Row<T>>> => [
 
 /**
  * Diagnostics: one block per check, each a table over every cohort and outcome that has stored
- * diagnostics (`StoredDiagnostics`, `shared/diagnostics/types.ts`). Score positions are measured
- * from the cohort's cutoff (score − cutoff), as the recompute analyses them. Estimates are the
+ * diagnostics (`StoredDiagnostics`, `shared/diagnostics/types.ts`), pooled windows included. Score
+ * positions are measured from each cohort's cutoff (score − cutoff), as the recompute analyses them. Estimates are the
  * engine's conventional ones with robust bias-corrected intervals and p, unless a header says
  * otherwise. A check the data did not allow is absent here and named in a `check_not_run` caveat.
  */
@@ -23,8 +23,8 @@ export function diagnosticsSheet(content: AnnexContent): SheetBuilder {
   const sheet = new SheetBuilder('Diagnostics');
   const withReport = content.results.filter((r): r is AnnexResult & { diagnostics: StoredDiagnostics } => r.diagnostics !== null);
   sheet.title('Diagnostics');
-  sheet.note('Score positions are measured from the cohort’s cutoff (score − cutoff). Intervals are robust bias-corrected and p-values robust unless a header says otherwise.');
-  sheet.note('Pooled windows are not listed: their diagnostics are not stored separately. A check the data did not allow is absent and named on the Caveats sheet (code check_not_run).');
+  sheet.note('Score positions are measured from each cohort’s own cutoff (score − cutoff), in pooled windows too. Intervals are robust bias-corrected and p-values robust unless a header says otherwise.');
+  sheet.note('A check the data did not allow is absent and named on the Caveats sheet (code check_not_run).');
   if (withReport.length === 0) {
     sheet.blank().note('No diagnostics are stored for these results yet.');
     return sheet;
