@@ -119,14 +119,12 @@ export async function getCohortDetail(ds: DataSource, programId: number, period:
   const schedule = await ds.getRepository(CutoffChange).findBy({ programId });
   const refs = await outcomeRefs(ds.manager, programId, primary.version.settings.outcomes);
   const dtos = await toDtos(ds.manager, rows, refs);
-  const details = rows.length === 0 ? [] : await ds.getRepository(EstimateResultDetail).findBy(rows.map((r) => ({ resultId: r.id })));
+  const details = await resultDetails(ds, rows.map((r) => r.id));
   const outcomes: OutcomeResultDetailDto[] = [];
   for (const d of dtos) {
-    const detail = details.find((x) => x.resultId === d.id);
     outcomes.push({
       ...d,
-      diagnostics: detail?.diagnostics ?? null,
-      bins: detail?.bins ?? [],
+      ...(details.get(d.id) ?? { diagnostics: null, bins: [] }),
       deviations: await deviationsUpTo(ds.manager, primary.design.id, d.provenance.designVersion),
     });
   }

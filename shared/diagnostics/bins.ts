@@ -1,6 +1,7 @@
 import type { EligibleSide } from '../schemas/program';
 import { scoreAt } from './centred-score';
 import { DiagnosticError } from './errors';
+import { remember, type DiagnosticsMemo } from './memo';
 import { fitPolynomial, polynomialDerivative, polynomialValue } from './polynomial-fit';
 
 /** Order of the global polynomial used to estimate the mean's slope and the variance (METHODS §5a: order 4). */
@@ -63,24 +64,27 @@ interface SideData {
  * (floored at a tenth of their mean), f from spacings of the sorted scores (m = √n_s apart).
  * @throws DiagnosticError when a side has fewer than 10 observations.
  */
-export function optimalBinCounts(t: Float64Array, y: Float64Array, spacing: BinSpacing): BinCounts {
-  const [ineligible, eligible] = splitSides(t, y);
+export function optimalBinCounts(t: Float64Array, y: Float64Array, spacing: BinSpacing, memo?: DiagnosticsMemo): BinCounts {
+  const [ineligible, eligible] = splitSides(t, y, memo);
   return { ineligible: sideBinCount(ineligible, spacing), eligible: sideBinCount(eligible, spacing) };
 }
 
 /**
  * Binned means for the chart with the IMSE-optimal count on each side (or the counts given).
  * Evenly spaced bins run from the cutoff to the side's extreme score; quantile-spaced bins hold
- * counts that differ by at most one.
+ * counts that differ by at most one. `memo` keeps the order of the scores between the charts of
+ * the same scores (`runDiagnostics` draws eight).
  */
 export function binnedMeans(
   t: Float64Array,
   y: Float64Array,
   spacing: BinSpacing,
   placement: { cutoff: number; eligibleSide: EligibleSide },
-  counts: BinCounts = optimalBinCounts(t, y, spacing),
+  counts?: BinCounts,
+  memo?: DiagnosticsMemo,
 ): BinnedSeries {
-  const sides = splitSides(t, y);
+  counts ??= optimalBinCounts(t, y, spacing, memo);
+  const sides = splitSides(t, y, memo);
   const bins: BinnedMean[] = [];
   for (const s of [0, 1] as const) {
     const data = sides[s];
@@ -201,9 +205,9 @@ function varies(values: Float64Array): boolean {
 }
 
 /** Each side's data by distance from the cutoff, ascending. */
-function splitSides(t: Float64Array, y: Float64Array): [SideData, SideData] {
+function splitSides(t: Float64Array, y: Float64Array, memo: DiagnosticsMemo | undefined): [SideData, SideData] {
   if (t.length !== y.length) throw new RangeError('binnedMeans: the score and the variable must have the same length');
-  const { ineligible, eligible } = sideOrder(t);
+  const { ineligible, eligible } = remember(memo, 'chart side order', [t], () => sideOrder(t));
   const make = (idx: Uint32Array): SideData => {
     const side = { distance: new Float64Array(idx.length), y: new Float64Array(idx.length), t: new Float64Array(idx.length) };
     for (let k = 0; k < idx.length; k++) {
@@ -217,16 +221,8 @@ function splitSides(t: Float64Array, y: Float64Array): [SideData, SideData] {
   return [make(ineligible), make(eligible)];
 }
 
-/**
- * Indices of each side ordered by distance from the cutoff, ties in index order (as a stable sort
- * would leave them). A chart orders the same scores eight times (two variables, two spacings, count
- * and bins), so the order is kept per score array; score arrays are never changed after centring.
- */
-const sideOrders = new WeakMap<Float64Array, { ineligible: Uint32Array; eligible: Uint32Array }>();
-
+/** Indices of each side ordered by distance from the cutoff, ties in index order (as a stable sort would leave them). */
 function sideOrder(t: Float64Array): { ineligible: Uint32Array; eligible: Uint32Array } {
-  const cached = sideOrders.get(t);
-  if (cached) return cached;
   const order = orderByDistance(t);
   let eligibleCount = 0;
   for (let i = 0; i < t.length; i++) eligibleCount += +(t[i]! >= 0);
@@ -236,7 +232,6 @@ function sideOrder(t: Float64Array): { ineligible: Uint32Array; eligible: Uint32
     if (t[i]! >= 0) sides.eligible[b++] = i;
     else sides.ineligible[a++] = i;
   }
-  sideOrders.set(t, sides);
   return sides;
 }
 

@@ -12,7 +12,7 @@ import { donutEstimates, donutRadii } from './donut';
 import { isDiagnosticError } from './errors';
 import { scoreHeaping } from './heaping';
 import { localRandomization, newLocalRandomizationShare } from './local-randomization';
-import { remember, type DiagnosticsMemo } from './memo';
+import { createDiagnosticsMemo, remember, type DiagnosticsMemo } from './memo';
 import { placeboCutoffs } from './placebo';
 import { localLinearDesignEffect, minimumDetectableEffect, sampleForEffect } from './power';
 import { bandwidthSensitivity } from './sensitivity';
@@ -34,7 +34,9 @@ import { weakFirstStage } from './weak-first-stage';
  *
  * @example runDiagnostics({ score, outcome, takeUp, covariates: [{ name: 'household_size', values }] }, { cutoff: 60, eligibleSide: 'at-or-above', population: 'households' })
  */
-export function runDiagnostics(data: DiagnosticsData, options: DiagnosticsOptions, memo?: DiagnosticsMemo): DiagnosticsReport {
+export function runDiagnostics(data: DiagnosticsData, options: DiagnosticsOptions, scopeMemo?: DiagnosticsMemo): DiagnosticsReport {
+  // Without a scope's memo, one for this call still spares the charts re-sorting the same scores.
+  const memo = scopeMemo ?? createDiagnosticsMemo();
   const notRun: CheckNotRun[] = [];
   const attempt = <T>(check: string, run: () => T): T | null => {
     try {
@@ -58,11 +60,8 @@ export function runDiagnostics(data: DiagnosticsData, options: DiagnosticsOption
 
   const window = main?.bandwidth.h ?? spread(data.score) / 4;
   // "Round" means round in the agency's units, so one cohort's distances are turned back into scores.
-  const heaping = attempt('score heaping check', () =>
-    typeof centredFrom === 'number'
-      ? scoreHeaping(data.score.map((x) => x + centredFrom), estimation.cutoff + centredFrom, estimation.eligibleSide, window)
-      : scoreHeaping(data.score, estimation.cutoff, estimation.eligibleSide, window),
-  );
+  const agencyScore = typeof centredFrom === 'number' ? remember(memo, 'agency score', [data.score, centredFrom], () => data.score.map((x) => x + centredFrom)) : data.score;
+  const heaping = attempt('score heaping check', () => scoreHeaping(agencyScore, estimation.cutoff + (typeof centredFrom === 'number' ? centredFrom : 0), estimation.eligibleSide, window));
   const gridStep = heaping?.step ?? 0;
   const density = attempt('score density check', () =>
     remember(memo, 'density', [t, gridStep], () => {
@@ -96,8 +95,8 @@ export function runDiagnostics(data: DiagnosticsData, options: DiagnosticsOption
     ),
   );
   const chart = (values: Float64Array): ChartSeries => ({
-    evenlySpaced: binnedMeans(t, values, 'evenly-spaced', placement),
-    quantileSpaced: binnedMeans(t, values, 'quantile-spaced', placement),
+    evenlySpaced: binnedMeans(t, values, 'evenly-spaced', placement, undefined, memo),
+    quantileSpaced: binnedMeans(t, values, 'quantile-spaced', placement, undefined, memo),
     fit: main ? fittedLines(data.score, values, main) : { ineligible: [], eligible: [] },
   });
   const bins = attempt('chart of binned means', () => ({ outcome: chart(data.outcome), takeUp: data.takeUp ? chart(data.takeUp) : null }));

@@ -14,10 +14,10 @@ const scopeColumns = <T>(): Array<ColumnSpec<Row<T>>> => [
 
 /**
  * Diagnostics: one block per check, each a table over every cohort and outcome that has stored
- * diagnostics (`StoredDiagnostics`, `shared/diagnostics/types.ts`), pooled windows included. Score
- * positions are measured from each cohort's cutoff (score − cutoff), as the recompute analyses them. Estimates are the
- * engine's conventional ones with robust bias-corrected intervals and p, unless a header says
- * otherwise. A check the data did not allow is absent here and named in a `check_not_run` caveat.
+ * diagnostics (`StoredDiagnostics`, `shared/diagnostics/types.ts`), pooled windows included.
+ * Score positions are measured from each cohort's cutoff (score − cutoff), as the recompute
+ * analyses them. Estimates are the engine's conventional ones with robust bias-corrected intervals
+ * and p, unless a header says otherwise. A check the data did not allow is absent here and named in a `check_not_run` caveat.
  */
 export function diagnosticsSheet(content: AnnexContent): SheetBuilder {
   const sheet = new SheetBuilder('Diagnostics');
