@@ -7,6 +7,7 @@ import { enforceAccess } from './auth/access-enforcer';
 import { createSignIn } from './auth/sign-in';
 import { REPO_ROOT } from './config/env';
 import { setAccessEnforcer } from './http/access';
+import { forgetReadsAfterChanges } from './http/reused-reads';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { apiRouter } from './routes';
 import { authRoutes } from './routes/auth.routes';
@@ -45,7 +46,7 @@ export function createApp(ctx: AppContext): Express {
       customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
     }),
   );
-  app.use(['/api', '/auth'], ...signIn.handlers);
+  app.use(['/api', '/auth'], forgetReadsAfterChanges, ...signIn.handlers);
   app.use('/auth', authRoutes(ctx, signIn));
   app.use('/api', express.json({ limit: '1mb' }));
   app.use('/api', apiRouter(ctx));

@@ -3,6 +3,8 @@ import session from 'express-session';
 import MySQLStoreFactory from 'express-mysql-session';
 import type { DataSource } from 'typeorm';
 import type { Config } from '../config/env';
+import { REUSE_READS_MS } from '../http/reused-reads';
+import { ExpiringMap } from '../lib/expiring-map';
 
 /** Name of the session cookie. */
 export const SESSION_COOKIE = 'cutline.sid';
@@ -48,6 +50,7 @@ export function sessionMiddleware(config: Config, dataSource: DataSource): Reque
     connection as never,
   );
   throttleTouches(store, TOUCH_INTERVAL_MS);
+  reuseSessionReads(store, new ExpiringMap<string, string>(REUSE_READS_MS, 10_000));
   return session({
     name: SESSION_COOKIE,
     secret: config.secrets.sessionSecret,
@@ -87,6 +90,36 @@ function throttleTouches(store: session.Store, intervalMs: number): void {
     lastTouched.set(sid, now);
     touch(sid, data, callback);
   };
+}
+
+type GetFn = (sid: string, callback: (err: unknown, session?: session.SessionData | null) => void) => void;
+type ChangeFn = (sid: string, ...rest: never[]) => void;
+
+/**
+ * Reuses a session read for `REUSE_READS_MS` (`server/http/reused-reads.ts`). What a session holds
+ * is written at sign-in and never changes afterwards (the person, the CSRF token, the sign-in
+ * time), so only its end matters: saving or destroying it here forgets it at once; an end decided
+ * by another process (sign-out there, an expired idle time) is seen within the window. Each request
+ * gets its own copy, since express-session changes the object it is given.
+ */
+function reuseSessionReads(store: session.Store, reads: ExpiringMap<string, string>): void {
+  const writable = store as unknown as { get: GetFn; set: ChangeFn; destroy: ChangeFn };
+  const get = writable.get.bind(store);
+  writable.get = (sid, callback) => {
+    const kept = reads.get(sid);
+    if (kept !== undefined) return callback(null, JSON.parse(kept) as session.SessionData);
+    get(sid, (err, found) => {
+      if (!err && found) reads.set(sid, JSON.stringify(found));
+      callback(err, found);
+    });
+  };
+  for (const method of ['set', 'destroy'] as const) {
+    const change = writable[method].bind(store);
+    writable[method] = (sid, ...rest) => {
+      reads.delete(sid);
+      change(sid, ...rest);
+    };
+  }
 }
 
 /** Whether the request carries Cutline's session cookie at all. */

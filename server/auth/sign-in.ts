@@ -3,6 +3,7 @@ import type { RequestHandler } from 'express';
 import { Passport } from 'passport';
 import type { AppContext } from '../app-context';
 import type { CurrentUser } from '../http/current-user';
+import { reusedReads } from '../http/reused-reads';
 import { loadCurrentUser } from '../services/users.service';
 import { completeSignIn } from './complete-sign-in';
 import { parseGroupRoles, type GroupRoleRule } from './group-roles';
@@ -58,9 +59,16 @@ export function createSignIn(ctx: AppContext): SignIn {
   const passport = new Passport();
   passport.use(strategy);
   passport.serializeUser((user, done) => done(null, user.id));
+  // People with their grants, reused for a moment (`server/http/reused-reads.ts`); switched-off accounts are never kept.
+  const people = reusedReads<number, CurrentUser>(10_000);
   passport.deserializeUser((id: unknown, done: (err: unknown, user?: CurrentUser | false) => void) => {
     if (typeof id !== 'number') return done(null, false);
-    loadCurrentUser(dataSource, id).then((user) => done(null, user ?? false), done);
+    const kept = people.get(id);
+    if (kept) return done(null, kept);
+    loadCurrentUser(dataSource, id).then((user) => {
+      if (user) people.set(id, Object.freeze({ ...user, grants: Object.freeze(user.grants.map((g) => Object.freeze(g))) }) as CurrentUser);
+      done(null, user ?? false);
+    }, done);
   });
   return {
     passport,

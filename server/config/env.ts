@@ -1,3 +1,4 @@
+import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { z } from 'zod';
@@ -16,6 +17,7 @@ const EnvSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
   CUTLINE_PORT_BASE: port.default(4600),
   CUTLINE_APP_PORT: port.optional(),
+  CUTLINE_WEB_PROCESSES: z.coerce.number().int().min(1).max(16).optional(),
   CUTLINE_PUBLIC_URL: z.url().optional(),
   CUTLINE_VAR_DIR: z.string().optional(),
   CUTLINE_LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
@@ -94,7 +96,8 @@ export interface Config {
   version: string;
   varDir: string;
   logLevel: z.infer<typeof EnvSchema>['CUTLINE_LOG_LEVEL'];
-  app: { port: number; publicUrl: string };
+  /** `processes`: web server processes sharing the port (`tsx server/main.ts` only; `npm start` runs one). */
+  app: { port: number; publicUrl: string; processes: number };
   /** How screens write numbers and dates: the agency's locale and time zone (programs may carry their own zone). */
   agency: { locale: string; timeZone: string };
   db: { host: string; port: number; database: string; user: string; password: string };
@@ -140,7 +143,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     version: APP_VERSION,
     varDir: path.resolve(REPO_ROOT, e.CUTLINE_VAR_DIR ?? 'var'),
     logLevel: e.CUTLINE_LOG_LEVEL,
-    app: { port: appPort, publicUrl },
+    app: { port: appPort, publicUrl, processes: e.CUTLINE_WEB_PROCESSES ?? Math.min(os.availableParallelism(), 4) },
     agency: { locale: e.CUTLINE_LOCALE, timeZone: e.CUTLINE_TIME_ZONE },
     db: {
       host: e.CUTLINE_DB_HOST,

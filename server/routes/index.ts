@@ -18,11 +18,13 @@ import { runRoutes } from './runs.routes';
 import { sampleExtractRoutes } from './sample-extract.routes';
 
 /**
- * Every API router, mounted under /api. One a line, sorted. Each route's first handler is
+ * Every API router, mounted under /api. One a line, sorted, after the dashboards' read routes: they
+ * take most requests, and a request tries the routes in order. Each route's first handler is
  * `allow(...)`; `tests/api/access-matrix.test.ts` walks this router and fails on a route without one.
  */
 export function apiRouter(ctx: AppContext): Router {
   const router = Router();
+  router.use(resultRoutes(ctx));
   router.use(adminAuditRoutes(ctx));
   router.use(adminScheduleRoutes(ctx));
   router.use(adminUserRoutes(ctx));
@@ -36,7 +38,6 @@ export function apiRouter(ctx: AppContext): Router {
   router.use(meRoutes(ctx));
   router.use(programAdminRoutes(ctx));
   router.use(programRoutes(ctx));
-  router.use(resultRoutes(ctx));
   router.use(runRoutes(ctx));
   router.use(sampleExtractRoutes(ctx));
   return router;

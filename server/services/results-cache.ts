@@ -1,6 +1,9 @@
 import { createHash } from 'node:crypto';
+import { promisify } from 'node:util';
+import zlib from 'node:zlib';
 import type { Request, Response } from 'express';
 import type { DataSource } from 'typeorm';
+import { reusedReads } from '../http/reused-reads';
 
 /**
  * The dashboards' read endpoints answer many identical requests between recomputes. This keeps
@@ -9,10 +12,15 @@ import type { DataSource } from 'typeorm';
  * the program row (its `updated_at` moves with any change to its definitions or cutoff schedule),
  * the primary design and its version, the results (count, newest id and time, stale count), the
  * acknowledgements, the deviations and the latest run with its progress. Any write anywhere, by
- * any process, changes the stamp, so no process needs to be told; a stale entry is never served.
+ * any process, changes the stamp, so no process needs to be told. The stamp itself is reused for
+ * `REUSE_READS_MS`: a change made through this process shows at once, one made elsewhere (a
+ * recompute in the jobs process) within that second.
  */
 const MAX_ENTRIES = 500;
+const gzip = promisify(zlib.gzip);
 const entries = new Map<string, { stamp: string; answer: CachedJson }>();
+/** Each program's stamp, reused for a moment (`server/http/reused-reads.ts`). */
+const stamps = reusedReads<string, string>(MAX_ENTRIES);
 
 export async function resultsStamp(ds: DataSource, programId: number): Promise<string> {
   const [row] = (await ds.query(
@@ -28,9 +36,10 @@ export async function resultsStamp(ds: DataSource, programId: number): Promise<s
   return JSON.stringify(row ?? {});
 }
 
-/** A cached answer: the JSON bytes and their entity tag. */
+/** A cached answer: the JSON bytes, the same gzip-compressed, and their entity tag. */
 export interface CachedJson {
   body: Buffer;
+  gzipped: Buffer;
   etag: string;
 }
 
@@ -40,23 +49,29 @@ export interface CachedJson {
  * Errors are not cached.
  */
 export async function cachedResultsJson(ds: DataSource, programId: number, key: string, compute: () => Promise<unknown>): Promise<CachedJson> {
-  const stamp = await resultsStamp(ds, programId);
-  const cacheKey = `${ds.options.database ?? ''}:${programId}:${key}`;
+  const programKey = `${ds.options.database ?? ''}:${programId}`;
+  let stamp = stamps.get(programKey);
+  if (stamp === undefined) stamps.set(programKey, (stamp = await resultsStamp(ds, programId)));
+  const cacheKey = `${programKey}:${key}`;
   const hit = entries.get(cacheKey);
   if (hit && hit.stamp === stamp) return hit.answer;
   const body = Buffer.from(JSON.stringify(await compute()));
-  const answer = { body, etag: `W/"${createHash('sha1').update(body).digest('base64url')}"` };
+  const answer = { body, gzipped: await gzip(body), etag: `W/"${createHash('sha1').update(body).digest('base64url')}"` };
   if (entries.size >= MAX_ENTRIES) entries.delete(entries.keys().next().value!);
   entries.set(cacheKey, { stamp, answer });
   return answer;
 }
 
-/** Sends a cached answer, or 304 when the browser already holds it. */
+/**
+ * Sends a cached answer — compressed once when it was cached, for the browsers that accept gzip
+ * (all do; dashboard answers shrink to a quarter or less) — or 304 when the browser already holds it.
+ */
 export function sendCachedJson(req: Request, res: Response, answer: CachedJson): void {
-  res.set('ETag', answer.etag).type('json');
+  res.set('ETag', answer.etag).vary('Accept-Encoding').type('json');
   if (req.fresh) {
     res.status(304).end();
     return;
   }
-  res.send(answer.body);
+  if (req.acceptsEncodings('gzip', 'identity') === 'gzip') res.set('Content-Encoding', 'gzip').send(answer.gzipped);
+  else res.send(answer.body);
 }

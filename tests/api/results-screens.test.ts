@@ -1,4 +1,5 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { REUSE_READS_MS } from '@server/http/reused-reads';
 import { installDemoScenario } from '@server/demo/install-demo';
 import { EstimateResult } from '@server/entities/estimate-result.entity';
 import { Program } from '@server/entities/program.entity';
@@ -55,13 +56,35 @@ describe('results for the screens', () => {
     const first = (await director.get(url).expect(200)).body;
     expect(first.stale).toBe(false);
     expect((await director.get(url).expect(200)).body).toEqual(first);
-    // Another process (the recompute job) marks a result stale: the next answer says so.
+    // Another process (the recompute job) marks a result stale: once this process's reuse of the
+    // program's stamp is over (the app runs here, so its clock can be moved), the answer says so.
     await db.dataSource.getRepository(EstimateResult).update({ programId, scopeKey: 'cohort:2026-10', outcomeKey: 'shutoff_6m' }, { stale: true, staleReason: 'A new extract was accepted for 2026-10.' });
-    const second = (await director.get(url).expect(200)).body;
-    expect(second.stale).toBe(true);
-    expect(second.outcomes[0].latest.staleReason).toBe('A new extract was accepted for 2026-10.');
-    // A renamed program shows under its new name.
-    await db.dataSource.getRepository(Program).update({ id: programId }, { name: 'Winter Heating Credit (renamed)' });
-    expect((await director.get(url).expect(200)).body.programName).toBe('Winter Heating Credit (renamed)');
+    let clock = Date.now();
+    const later = () => vi.useFakeTimers({ toFake: ['Date'], now: (clock += REUSE_READS_MS) });
+    try {
+      later();
+      const second = (await director.get(url).expect(200)).body;
+      expect(second.stale).toBe(true);
+      expect(second.outcomes[0].latest.staleReason).toBe('A new extract was accepted for 2026-10.');
+      // A renamed program shows under its new name.
+      await db.dataSource.getRepository(Program).update({ id: programId }, { name: 'Winter Heating Credit (renamed)' });
+      later();
+      expect((await director.get(url).expect(200)).body.programName).toBe('Winter Heating Credit (renamed)');
+    } finally {
+      vi.useRealTimers();
+    }
+  });
+
+  it('answers compressed to browsers that accept it, and 304 to one that holds the answer', async () => {
+    const manager = await signIn(t, { role: 'manager', programId });
+    const url = `/api/programs/${programId}/results/trend?outcome=shutoff_6m`;
+    const plain = await manager.get(url).set('Accept-Encoding', 'identity').expect(200);
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    const zipped = await manager.get(url).set('Accept-Encoding', 'gzip, deflate, br').expect(200);
+    expect(zipped.headers['content-encoding']).toBe('gzip');
+    expect(zipped.headers.vary).toMatch(/Accept-Encoding/);
+    expect(Number(zipped.headers['content-length'])).toBeLessThan(Number(plain.headers['content-length']) / 2);
+    expect(zipped.body).toEqual(plain.body);
+    await manager.get(url).set('If-None-Match', String(plain.headers.etag)).expect(304);
   });
 });

@@ -4,6 +4,7 @@ import type TestAgent from 'supertest/lib/agent';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { installDemoScenario } from '@server/demo/install-demo';
 import { TOUCH_INTERVAL_MS } from '@server/auth/session';
+import { REUSE_READS_MS } from '@server/http/reused-reads';
 import { HttpSession } from '@server/entities/http-session.entity';
 import { Program } from '@server/entities/program.entity';
 import { RoleGrant } from '@server/entities/role-grant.entity';
@@ -12,6 +13,21 @@ import { createLogger } from '@server/lib/logger';
 import { signIn, signInThroughIdp } from '../support/sign-in';
 import { buildTestApp, type TestApp } from '../support/test-app';
 import { createTestDatabase, type TestDatabase } from '../support/test-database';
+
+/**
+ * Runs `check` with the clock moved past the window in which a process reuses its reads of the
+ * session and grants (the app runs in this process, so its clock can be moved). The tests below
+ * change the database directly, as another instance or the jobs process would; changes made
+ * through this app apply at once (`admin-users.test.ts`).
+ */
+async function afterReuseWindow(check: () => Promise<void>): Promise<void> {
+  vi.useFakeTimers({ toFake: ['Date'], now: Date.now() + REUSE_READS_MS });
+  try {
+    await check();
+  } finally {
+    vi.useRealTimers();
+  }
+}
 
 const sessionIdOf = (setCookie: string[] | string | undefined): string | null => {
   const line = [setCookie ?? []].flat().find((c) => c.startsWith('cutline.sid='));
@@ -91,8 +107,10 @@ describe('sessions, CSRF and cross-program access', () => {
       const agent = await signIn(t, { role: 'manager', programId: programA });
       const sessionId = await currentSessionId(agent);
       await db.dataSource.getRepository(HttpSession).update({ sessionId }, { expires: Math.floor(Date.now() / 1000) - 5 });
-      const res = await agent.get('/api/me').expect(401);
-      expect(res.body.error.code).toBe('session_expired');
+      await afterReuseWindow(async () => {
+        const res = await agent.get('/api/me').expect(401);
+        expect(res.body.error.code).toBe('session_expired');
+      });
     });
 
     it('renews the stored idle expiry on use, writing it at most once a minute per session', async () => {
@@ -121,21 +139,32 @@ describe('sessions, CSRF and cross-program access', () => {
       const data = JSON.parse(row.data!);
       data.signedInAt = Date.now() - (db.config.auth.session.absoluteHours * 3_600_000 + 60_000);
       await db.dataSource.getRepository(HttpSession).update({ sessionId }, { data: JSON.stringify(data) });
-      expect((await agent.get('/api/programs').expect(401)).body.error.code).toBe('session_expired');
-      expect((await agent.get('/api/me').expect(401)).body.error.code).toBe('session_expired');
+      await afterReuseWindow(async () => {
+        expect((await agent.get('/api/programs').expect(401)).body.error.code).toBe('session_expired');
+        expect((await agent.get('/api/me').expect(401)).body.error.code).toBe('session_expired');
+      });
     });
 
-    it('ends the sessions of a switched-off account at their next request', async () => {
+    it('ends the sessions of an account switched off elsewhere within a second', async () => {
       const agent = await signIn(t, { role: 'analyst', programId: programA });
       await db.dataSource.getRepository(User).update({ id: agent.me.user.id }, { active: false });
-      expect((await agent.get('/api/me').expect(401)).body.error.code).toBe('session_expired');
+      await afterReuseWindow(async () => {
+        expect((await agent.get('/api/me').expect(401)).body.error.code).toBe('session_expired');
+      });
     });
 
-    it('applies a revoked grant at once', async () => {
+    it('applies a grant revoked elsewhere within a second, and one revoked through this process at once', async () => {
       const agent = await signIn(t, { role: 'analyst', programId: programA });
       await agent.get(`/api/programs/${programA}`).expect(200);
       await db.dataSource.getRepository(RoleGrant).delete({ userId: agent.me.user.id });
-      await agent.get(`/api/programs/${programA}`).expect(403);
+      await afterReuseWindow(() => agent.get(`/api/programs/${programA}`).expect(403).then(() => undefined));
+
+      const other = await signIn(t, { role: 'analyst', programId: programA });
+      await other.get(`/api/programs/${programA}`).expect(200);
+      await db.dataSource.getRepository(RoleGrant).delete({ userId: other.me.user.id });
+      // Any state-changing request through this process forgets the reused reads.
+      await other.post('/api/me/nothing-here').expect(404);
+      await other.get(`/api/programs/${programA}`).expect(403);
     });
 
     it('tells a request without any session to sign in', async () => {

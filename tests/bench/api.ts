@@ -34,6 +34,8 @@ const BENCH_DIR = path.join(REPO_ROOT, 'var', 'bench-api');
 const CONNECTIONS = 50;
 const DURATION_S = Number(process.env.BENCH_API_SECONDS ?? 20);
 const say = (line: string) => console.log(`[bench] ${line}`);
+/** What the dashboard's browser sends with each API request: JSON wanted, compressed answers welcome. */
+const BROWSER_HEADERS = { accept: 'application/json', 'accept-encoding': 'gzip, deflate, br, zstd' };
 
 async function main(): Promise<void> {
   const base = Number(process.env.CUTLINE_PORT_BASE ?? 4600);
@@ -62,6 +64,7 @@ async function main(): Promise<void> {
     const { periods } = await installDemoResults(ds, programId);
     say(`demo scenario with results for ${periods.length} months in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 
+    say(`app in ${config.app.processes} process${config.app.processes === 1 ? '' : 'es'} (CUTLINE_WEB_PROCESSES)`);
     const started = await startServer();
     child = started.child;
     const url = started.url;
@@ -101,7 +104,8 @@ async function main(): Promise<void> {
           url,
           connections: CONNECTIONS,
           duration: DURATION_S,
-          headers: { accept: 'application/json' },
+          // What the dashboard's browser sends: JSON wanted, compressed answers welcome.
+          headers: BROWSER_HEADERS,
           requests: paths.map((p) => ({
             method: 'GET' as const,
             path: p,
@@ -109,7 +113,7 @@ async function main(): Promise<void> {
             setupRequest: (req: autocannon.Request, context: object) => {
               const c = context as { cookie?: string };
               c.cookie ??= cookies[clientCount++ % cookies.length];
-              return { ...req, headers: { ...req.headers, accept: 'application/json', cookie: c.cookie! } };
+              return { ...req, headers: { ...req.headers, ...BROWSER_HEADERS, cookie: c.cookie! } };
             },
           })),
         },

@@ -16,6 +16,8 @@ export function serverEnv(config: Config, port: number): NodeJS.ProcessEnv {
     ...process.env,
     NODE_ENV: 'production',
     CUTLINE_APP_PORT: String(port),
+    // One process, so the child's pid is the server's own (kill -9, resident memory).
+    CUTLINE_WEB_PROCESSES: '1',
     CUTLINE_PUBLIC_URL: `http://127.0.0.1:${port}`,
     CUTLINE_SAML_IDP_ENTITY_ID: idp.entityId,
     CUTLINE_SAML_IDP_SSO_URL: idp.ssoUrl,
