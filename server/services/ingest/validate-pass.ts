@@ -3,6 +3,7 @@ import { once } from 'node:events';
 import type { ErrorCode } from '@shared/errors';
 import type { EligibleSide } from '@shared/schemas/program';
 import { isEligible } from '@shared/domain/cutoff-schedule';
+import { collectGarbage } from '../../lib/collect-garbage';
 import { cellPreview } from './cells';
 import { pseudonym, pseudonymKey } from './pseudonym';
 import { checkRow, RowValues, type RowRules } from './row-checks';
@@ -63,6 +64,9 @@ export interface PassResult {
 }
 
 const NULL = '\\N';
+
+/** Rows between two full garbage collections (`server/lib/collect-garbage.ts`). */
+const ROWS_PER_COLLECTION = 100_000;
 
 /**
  * One streaming pass over the file: checks every row, pseudonymises identifiers (HMAC), writes the
@@ -164,7 +168,8 @@ export async function runValidationPass(input: PassInput): Promise<PassResult> {
         input.progress(table.bytesRead(), table.totalBytes);
       }
       for (const row of batch) {
-        if (++r.rowsRead > input.maxRows) {
+        if (++r.rowsRead % ROWS_PER_COLLECTION === 0) collectGarbage();
+        if (r.rowsRead > input.maxRows) {
           r.tooManyRows = true;
           break rows;
         }
