@@ -32,6 +32,8 @@ export interface ProcessPlan {
   serve: () => Promise<void>;
   /** Told in the first process when every server process listens. */
   ready?: () => void;
+  /** Told in the first process when a server process ends unasked (it is started again). */
+  lost?: (exitCode: number | null) => void;
 }
 
 /** Pause before a server process that died is started again (ms): long enough not to spin on a broken start. */
@@ -59,8 +61,10 @@ export async function serveInProcesses(plan: ProcessPlan): Promise<void> {
   let stopping = false;
   let listening = 0;
   const start = () => cluster.fork().once('listening', () => ++listening === plan.count && plan.ready?.());
-  cluster.on('exit', () => {
-    if (!stopping) setTimeout(start, RESTART_DELAY_MS);
+  cluster.on('exit', (_worker, exitCode) => {
+    if (stopping) return;
+    plan.lost?.(exitCode);
+    setTimeout(start, RESTART_DELAY_MS);
   });
   const stop = () => {
     stopping = true;

@@ -47,6 +47,7 @@ async function main(): Promise<void> {
       process.once('SIGTERM', shutdown);
     },
     ready: () => logger.info({ port: config.app.port, processes: config.app.processes }, 'Cutline is serving'),
+    lost: (exitCode) => logger.error({ exitCode }, 'a server process stopped; starting another in a second'),
   });
 }
 

@@ -24,6 +24,12 @@ export interface SignIn {
   handlers: RequestHandler[];
 }
 
+/**
+ * People with their grants by database and id, reused for a moment (`server/http/reused-reads.ts`);
+ * one map per process, whatever number of apps it builds. Switched-off accounts are never kept.
+ */
+const people = reusedReads<string, CurrentUser>(10_000);
+
 export function createSignIn(ctx: AppContext): SignIn {
   const { config, dataSource, identityProvider: idp } = ctx;
   const groupRules = parseGroupRoles(config.auth.groupRoles);
@@ -59,14 +65,13 @@ export function createSignIn(ctx: AppContext): SignIn {
   const passport = new Passport();
   passport.use(strategy);
   passport.serializeUser((user, done) => done(null, user.id));
-  // People with their grants, reused for a moment (`server/http/reused-reads.ts`); switched-off accounts are never kept.
-  const people = reusedReads<number, CurrentUser>(10_000);
   passport.deserializeUser((id: unknown, done: (err: unknown, user?: CurrentUser | false) => void) => {
     if (typeof id !== 'number') return done(null, false);
-    const kept = people.get(id);
+    const key = `${String(dataSource.options.database ?? '')}:${id}`;
+    const kept = people.get(key);
     if (kept) return done(null, kept);
     loadCurrentUser(dataSource, id).then((user) => {
-      if (user) people.set(id, Object.freeze({ ...user, grants: Object.freeze(user.grants.map((g) => Object.freeze(g))) }) as CurrentUser);
+      if (user) people.set(key, Object.freeze({ ...user, grants: Object.freeze(user.grants.map((g) => Object.freeze(g))) }) as CurrentUser);
       done(null, user ?? false);
     }, done);
   });
