@@ -105,13 +105,16 @@ type ChangeFn = (sid: string, ...rest: never[]) => void;
 function reuseSessionReads(store: session.Store, reads: ExpiringMap<string, string>): void {
   const writable = store as unknown as { get: GetFn; set: ChangeFn; destroy: ChangeFn };
   const get = writable.get.bind(store);
+  const read = (sid: string) =>
+    new Promise<string | undefined>((resolve, reject) => get(sid, (err, found) => (err ? reject(err as Error) : resolve(found ? JSON.stringify(found) : undefined))));
   writable.get = (sid, callback) => {
     const kept = reads.get(sid);
     if (kept !== undefined) return callback(null, JSON.parse(kept) as session.SessionData);
-    get(sid, (err, found) => {
-      if (!err && found) reads.set(sid, JSON.stringify(found));
-      callback(err, found);
-    });
+    // Concurrent requests of one session (a dashboard asks for several answers at once) share a read.
+    reads.load(sid, () => read(sid)).then(
+      (found) => callback(null, found === undefined ? null : (JSON.parse(found) as session.SessionData)),
+      (err: unknown) => callback(err),
+    );
   };
   for (const method of ['set', 'destroy'] as const) {
     const change = writable[method].bind(store);

@@ -70,10 +70,12 @@ export function createSignIn(ctx: AppContext): SignIn {
     const key = `${String(dataSource.options.database ?? '')}:${id}`;
     const kept = people.get(key);
     if (kept) return done(null, kept);
-    loadCurrentUser(dataSource, id).then((user) => {
-      if (user) people.set(key, Object.freeze({ ...user, grants: Object.freeze(user.grants.map((g) => Object.freeze(g))) }) as CurrentUser);
-      done(null, user ?? false);
-    }, done);
+    people
+      .load(key, async () => {
+        const user = await loadCurrentUser(dataSource, id);
+        return user ? (Object.freeze({ ...user, grants: Object.freeze(user.grants.map((g) => Object.freeze(g))) }) as CurrentUser) : undefined;
+      })
+      .then((user) => done(null, user ?? false), done);
   });
   return {
     passport,

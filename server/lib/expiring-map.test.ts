@@ -23,4 +23,33 @@ describe('ExpiringMap', () => {
     expect(map.size).toBe(3);
     expect([map.get(0), map.get(1), map.get(2), map.get(3), map.get(4)]).toEqual([undefined, undefined, 2, 3, 4]);
   });
+
+  it('shares one read among the requests that miss together, and keeps its value', async () => {
+    const map = new ExpiringMap<string, number>(60_000, 10);
+    let reads = 0;
+    const read = () => new Promise<number>((resolve) => setTimeout(() => resolve(++reads), 5));
+    const values = await Promise.all([map.load('a', read), map.load('a', read), map.load('a', read)]);
+    expect(values).toEqual([1, 1, 1]);
+    expect(reads).toBe(1);
+    expect(await map.load('a', read)).toBe(1);
+    expect(reads).toBe(1);
+  });
+
+  it('does not keep a read that a change overtook, nor an undefined value, nor share a failure later', async () => {
+    const map = new ExpiringMap<string, number>(60_000, 10);
+    let release!: (v: number) => void;
+    const slow = map.load('a', () => new Promise<number>((resolve) => (release = resolve)));
+    map.clear();
+    // A request after the change reads afresh rather than joining the read from before it.
+    const fresh = map.load('a', async () => 2);
+    release(1);
+    expect(await slow).toBe(1);
+    expect(await fresh).toBe(2);
+    expect(map.get('a')).toBe(2);
+    map.delete('a');
+    expect(await map.load('a', async () => undefined)).toBeUndefined();
+    expect(map.size).toBe(0);
+    await expect(map.load('b', () => Promise.reject(new Error('down')))).rejects.toThrow('down');
+    expect(await map.load('b', async () => 3)).toBe(3);
+  });
 });

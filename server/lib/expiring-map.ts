@@ -5,6 +5,8 @@
  */
 export class ExpiringMap<K, V> {
   private readonly entries = new Map<K, { value: V; storedAt: number }>();
+  /** Reads under way, one per key: requests arriving meanwhile wait for it instead of reading again. */
+  private readonly reading = new Map<K, Promise<V | undefined>>();
 
   constructor(
     private readonly ttlMs: number,
@@ -23,6 +25,34 @@ export class ExpiringMap<K, V> {
     return entry.value;
   }
 
+  /**
+   * The kept value, or else the value of `read()`, kept unless it is `undefined`. Requests that
+   * miss together share one read: when an entry runs out under load, dozens of requests would
+   * otherwise each run the same query at once. A read that a `delete` or `clear` overtook is
+   * returned to its callers but not kept, since what it read may predate the change.
+   */
+  async load(key: K, read: () => Promise<V | undefined>): Promise<V | undefined> {
+    const kept = this.get(key);
+    if (kept !== undefined) return kept;
+    const underWay = this.reading.get(key);
+    if (underWay) return underWay;
+    const reading: Promise<V | undefined> = read().then(
+      (value) => {
+        if (this.reading.get(key) === reading) {
+          this.reading.delete(key);
+          if (value !== undefined) this.set(key, value);
+        }
+        return value;
+      },
+      (err: unknown) => {
+        if (this.reading.get(key) === reading) this.reading.delete(key);
+        throw err;
+      },
+    );
+    this.reading.set(key, reading);
+    return reading;
+  }
+
   set(key: K, value: V): void {
     this.entries.delete(key);
     if (this.entries.size >= this.maxEntries) this.entries.delete(this.entries.keys().next().value as K);
@@ -31,10 +61,12 @@ export class ExpiringMap<K, V> {
 
   delete(key: K): void {
     this.entries.delete(key);
+    this.reading.delete(key);
   }
 
   clear(): void {
     this.entries.clear();
+    this.reading.clear();
   }
 
   get size(): number {

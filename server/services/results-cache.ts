@@ -19,6 +19,8 @@ import { reusedReads } from '../http/reused-reads';
 const MAX_ENTRIES = 500;
 const gzip = promisify(zlib.gzip);
 const entries = new Map<string, { stamp: string; answer: CachedJson }>();
+/** Answers being computed, by key and stamp: requests that miss together share one computation. */
+const computing = new Map<string, Promise<CachedJson>>();
 /** Each program's stamp, reused for a moment (`server/http/reused-reads.ts`). */
 const stamps = reusedReads<string, string>(MAX_ENTRIES);
 
@@ -46,20 +48,30 @@ export interface CachedJson {
 /**
  * The JSON of `compute()` for `key`, from the cache while the program's stamp holds, with a weak
  * entity tag made once per entry (hashing the body on every answer cost more than the lookup).
- * Errors are not cached.
+ * Requests that miss together (every dashboard after a recompute) share one computation and one
+ * stamp read. Errors are not cached.
  */
 export async function cachedResultsJson(ds: DataSource, programId: number, key: string, compute: () => Promise<unknown>): Promise<CachedJson> {
   const programKey = `${ds.options.database ?? ''}:${programId}`;
-  let stamp = stamps.get(programKey);
-  if (stamp === undefined) stamps.set(programKey, (stamp = await resultsStamp(ds, programId)));
+  const stamp = stamps.get(programKey) ?? (await stamps.load(programKey, () => resultsStamp(ds, programId)))!;
   const cacheKey = `${programKey}:${key}`;
   const hit = entries.get(cacheKey);
   if (hit && hit.stamp === stamp) return hit.answer;
-  const body = Buffer.from(JSON.stringify(await compute()));
-  const answer = { body, gzipped: await gzip(body), etag: `W/"${createHash('sha1').update(body).digest('base64url')}"` };
-  if (entries.size >= MAX_ENTRIES) entries.delete(entries.keys().next().value!);
-  entries.set(cacheKey, { stamp, answer });
+  const computeKey = `${cacheKey}\n${stamp}`;
+  let answer = computing.get(computeKey);
+  if (!answer) {
+    answer = serialise(compute).finally(() => computing.delete(computeKey));
+    computing.set(computeKey, answer);
+    const done = await answer;
+    if (entries.size >= MAX_ENTRIES) entries.delete(entries.keys().next().value!);
+    entries.set(cacheKey, { stamp, answer: done });
+  }
   return answer;
+}
+
+async function serialise(compute: () => Promise<unknown>): Promise<CachedJson> {
+  const body = Buffer.from(JSON.stringify(await compute()));
+  return { body, gzipped: await gzip(body), etag: `W/"${createHash('sha1').update(body).digest('base64url')}"` };
 }
 
 /**
