@@ -44,6 +44,8 @@ export function sessionMiddleware(config: Config, dataSource: DataSource): Reque
     {
       createDatabaseTable: false,
       clearExpired: false,
+      // The idle timeout lives here, in each stored session's expiry, renewed on use (`throttleTouches`).
+      expiration: config.auth.session.idleMinutes * 60_000,
       endConnectionOnClose: false,
       schema: { tableName: 'http_session', columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' } },
     },
@@ -57,13 +59,14 @@ export function sessionMiddleware(config: Config, dataSource: DataSource): Reque
     store,
     resave: false,
     saveUninitialized: false,
-    // Each request renews the idle timeout (cookie and stored expiry).
-    rolling: true,
+    // A browser-session cookie, set once at sign-in: the idle timeout is the stored expiry's, so
+    // answers carry no Set-Cookie (re-signing and re-sending the cookie on every answer cost about
+    // a seventh of a cached dashboard answer's CPU). Closing the browser drops the cookie.
+    rolling: false,
     cookie: {
       httpOnly: true,
       sameSite: 'lax',
       secure: config.auth.session.cookieSecure,
-      maxAge: config.auth.session.idleMinutes * 60_000,
       path: '/',
     },
   });

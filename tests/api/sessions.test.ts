@@ -92,6 +92,13 @@ describe('sessions, CSRF and cross-program access', () => {
       expect(cookie).toMatch(/HttpOnly/);
       expect(cookie).toMatch(/SameSite=Lax/);
       expect(cookie).not.toMatch(/Secure/);
+      // A browser-session cookie, set at sign-in only: the idle timeout is the stored expiry's.
+      expect(cookie).not.toMatch(/Max-Age|Expires/i);
+      const sessionId = decodeURIComponent(cookie.split(';')[0]!.slice('cutline.sid='.length)).slice(2).split('.')[0]!;
+      const stored = await db.dataSource.getRepository(HttpSession).findOneByOrFail({ sessionId });
+      expect(Math.abs(stored.expires - (Date.now() / 1000 + db.config.auth.session.idleMinutes * 60))).toBeLessThan(30);
+      const again = await request(t.app).get('/api/me').set('Cookie', cookie.split(';')[0]!).expect(200);
+      expect(again.headers['set-cookie']).toBeUndefined();
       const https = buildTestApp(db, { config: { ...db.config, auth: { ...db.config.auth, session: { ...db.config.auth.session, cookieSecure: true } } } });
       const agent = request.agent(https.app);
       const login = await agent.get('/auth/saml/login').set('X-Forwarded-Proto', 'https');
