@@ -2,11 +2,11 @@ import fs from 'node:fs';
 import path from 'node:path';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
-import { pinoHttp } from 'pino-http';
 import { enforceAccess } from './auth/access-enforcer';
 import { createSignIn } from './auth/sign-in';
 import { REPO_ROOT } from './config/env';
 import { setAccessEnforcer } from './http/access';
+import { requestLog } from './http/request-log';
 import { forgetReadsAfterChanges } from './http/reused-reads';
 import { apiNotFound, errorHandler } from './middleware/error-handler';
 import { apiRouter } from './routes';
@@ -35,17 +35,7 @@ export function createApp(ctx: AppContext): Express {
       },
     }),
   );
-  app.use(
-    pinoHttp({
-      logger: ctx.logger,
-      // Method, path without query string, status and timing only: no headers, bodies or addresses.
-      serializers: {
-        req: (req: { method: string; url: string }) => ({ method: req.method, path: req.url.split('?')[0] }),
-        res: (res: { statusCode: number }) => ({ status: res.statusCode }),
-      },
-      customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
-    }),
-  );
+  app.use(requestLog(ctx.logger));
   app.use(['/api', '/auth'], forgetReadsAfterChanges, ...signIn.handlers);
   app.use('/auth', authRoutes(ctx, signIn));
   app.use('/api', express.json({ limit: '1mb' }));
