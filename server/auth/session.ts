@@ -3,7 +3,7 @@ import session from 'express-session';
 import MySQLStoreFactory from 'express-mysql-session';
 import type { DataSource } from 'typeorm';
 import type { Config } from '../config/env';
-import { REUSE_READS_MS } from '../http/reused-reads';
+import { REUSE_READS_MS, REUSE_READS_SPREAD } from '../http/reused-reads';
 import { ExpiringMap } from '../lib/expiring-map';
 
 /** Name of the session cookie. */
@@ -52,7 +52,7 @@ export function sessionMiddleware(config: Config, dataSource: DataSource): Reque
     connection as never,
   );
   throttleTouches(store, TOUCH_INTERVAL_MS);
-  reuseSessionReads(store, new ExpiringMap<string, string>(REUSE_READS_MS, 10_000));
+  reuseSessionReads(store, new ExpiringMap<string, string>(REUSE_READS_MS, 10_000, REUSE_READS_SPREAD));
   return session({
     name: SESSION_COOKIE,
     secret: config.secrets.sessionSecret,

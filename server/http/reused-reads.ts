@@ -13,12 +13,15 @@ import { SAFE_METHODS } from '../auth/csrf';
  */
 export const REUSE_READS_MS = 1_000;
 
+/** Share of `REUSE_READS_MS` by which each reused read's life is randomly shortened (`ExpiringMap`). */
+export const REUSE_READS_SPREAD = 0.5;
+
 /** Readers that reuse reads register here to forget them after a local change. */
 const forgetters = new Set<() => void>();
 
 /** A map of reads that every local change empties (`maxEntries` keeps a busy process bounded). */
 export function reusedReads<K, V>(maxEntries: number): ExpiringMap<K, V> {
-  const map = new ExpiringMap<K, V>(REUSE_READS_MS, maxEntries);
+  const map = new ExpiringMap<K, V>(REUSE_READS_MS, maxEntries, REUSE_READS_SPREAD);
   forgetters.add(() => map.clear());
   return map;
 }

@@ -52,4 +52,20 @@ describe('ExpiringMap', () => {
     await expect(map.load('b', () => Promise.reject(new Error('down')))).rejects.toThrow('down');
     expect(await map.load('b', async () => 3)).toBe(3);
   });
+
+  it('spreads the expiries of entries stored together over the last part of their time', () => {
+    vi.useFakeTimers({ toFake: ['Date'], now: 1_000_000 });
+    const map = new ExpiringMap<number, number>(1000, 1000, 0.5);
+    for (let i = 0; i < 200; i++) map.set(i, i);
+    const alive = (at: number) => {
+      vi.setSystemTime(1_000_000 + at);
+      return Array.from({ length: 200 }, (_, i) => map.get(i)).filter((v) => v !== undefined).length;
+    };
+    // Times move forward only, since `get` forgets what has run out.
+    expect(alive(499)).toBe(200);
+    const halfway = alive(750);
+    expect(halfway).toBeGreaterThan(40);
+    expect(halfway).toBeLessThan(160);
+    expect(alive(1000)).toBe(0);
+  });
 });

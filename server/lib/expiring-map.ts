@@ -4,13 +4,21 @@
  * the clock with fake timers move these entries' age too.
  */
 export class ExpiringMap<K, V> {
-  private readonly entries = new Map<K, { value: V; storedAt: number }>();
+  private readonly entries = new Map<K, { value: V; storedAt: number; lifetimeMs: number }>();
   /** Reads under way, one per key: requests arriving meanwhile wait for it instead of reading again. */
   private readonly reading = new Map<K, Promise<V | undefined>>();
 
+  /**
+   * `spread` (0–1) shortens each entry's life by a random part of up to that share of `ttlMs`.
+   * Entries stored together then run out at different moments: without it, reads that a burst of
+   * requests made together (dozens of sessions at start-up or after a change) all ran out in the
+   * same millisecond, every `ttlMs`, and were all read again at once, queueing every request
+   * behind them (spreading expiries is common practice, no source).
+   */
   constructor(
     private readonly ttlMs: number,
     private readonly maxEntries: number,
+    private readonly spread = 0,
   ) {}
 
   get(key: K): V | undefined {
@@ -18,7 +26,7 @@ export class ExpiringMap<K, V> {
     if (!entry) return undefined;
     const age = Date.now() - entry.storedAt;
     // A clock moved backwards makes an entry's age meaningless: forget it too.
-    if (age >= this.ttlMs || age < 0) {
+    if (age >= entry.lifetimeMs || age < 0) {
       this.entries.delete(key);
       return undefined;
     }
@@ -56,7 +64,7 @@ export class ExpiringMap<K, V> {
   set(key: K, value: V): void {
     this.entries.delete(key);
     if (this.entries.size >= this.maxEntries) this.entries.delete(this.entries.keys().next().value as K);
-    this.entries.set(key, { value, storedAt: Date.now() });
+    this.entries.set(key, { value, storedAt: Date.now(), lifetimeMs: this.ttlMs * (1 - this.spread * Math.random()) });
   }
 
   delete(key: K): void {
