@@ -21,6 +21,8 @@ const formBody = express.urlencoded({ extended: false, limit: '1mb' });
 export function authRoutes(ctx: AppContext, signIn: SignIn): Router {
   const router = Router();
   const limit = signInRateLimit(ctx.config);
+  // `req.login` and `req.logout`, used below; the API needs neither (`restoreSignedInPerson`).
+  router.use(signIn.passport.initialize());
 
   /** Starts a sign-in: redirect to the identity provider. `?returnTo=/path` comes back as RelayState. */
   router.get('/saml/login', allow({ kind: 'public' }), limit, async (req, res) => {
