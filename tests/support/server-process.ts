@@ -53,7 +53,7 @@ export interface ServerProcess {
  */
 export async function startServerProcess(config: Config): Promise<ServerProcess> {
   const port = await freePort();
-  const child = spawn(process.execPath, ['--import', 'tsx', path.join(REPO_ROOT, 'server', 'main.ts')], {
+  const child = spawn(process.execPath, [...(process.env.SERVER_PROFILE ? ['--cpu-prof', `--cpu-prof-dir=${process.env.SERVER_PROFILE}`] : []), '--import', 'tsx', path.join(REPO_ROOT, 'server', 'main.ts')], {
     cwd: REPO_ROOT,
     env: serverEnv(config, port),
     stdio: ['ignore', 'inherit', 'inherit'],

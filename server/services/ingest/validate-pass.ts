@@ -6,6 +6,7 @@ import { isEligible } from '@shared/domain/cutoff-schedule';
 import { collectGarbage } from '../../lib/collect-garbage';
 import { cellPreview } from './cells';
 import { pseudonym, pseudonymKey } from './pseudonym';
+import { pseudonymsOnThread } from './pseudonym-thread';
 import { checkRow, RowValues, type RowRules } from './row-checks';
 import { SubjectIndex } from './subject-index';
 import type { OpenedTable, TableRow } from './table-reader';
@@ -65,13 +66,31 @@ export interface PassResult {
 
 const NULL = '\\N';
 
+/** A row that passed the checks, waiting for its pseudonym; `rest` is its outcome and covariate fields, tab-led. */
+interface CheckedRow {
+  line: number;
+  subject: string;
+  score: number;
+  takeUp: 0 | 1 | null;
+  cluster: string | null;
+  rest: string;
+}
+
+interface PendingBatch {
+  rows: CheckedRow[];
+  /** Their pseudonyms, 32 bytes each, in order. */
+  hashes: Promise<Buffer>;
+}
+
 /** Rows between two full garbage collections (`server/lib/collect-garbage.ts`). */
 const ROWS_PER_COLLECTION = 100_000;
 
 /**
- * One streaming pass over the file: checks every row, pseudonymises identifiers (HMAC), writes the
- * accepted rows as tab-separated chunks ready for `LOAD DATA` and hands rejected rows over in
- * batches. Holds only the current row, the subject index and the cluster codes in memory.
+ * One streaming pass over the file: checks every row, pseudonymises identifiers (HMAC, on a worker
+ * thread one batch behind the checks), writes the accepted rows as tab-separated chunks ready for
+ * `LOAD DATA` and hands rejected rows over in batches. Holds two batches of rows, the subject index
+ * and the cluster codes in memory. Rejected rows are found in line order except that a duplicate
+ * subject is found one batch late; they are stored by line.
  */
 export async function runValidationPass(input: PassInput): Promise<PassResult> {
   const { rules, table } = input;
@@ -121,12 +140,23 @@ export async function runValidationPass(input: PassInput): Promise<PassResult> {
     return undefined;
   };
 
-  /** One row; returns a promise only when it must wait (a batch to save, a new cluster, a full buffer). */
-  const handle = (row: TableRow): Promise<void> | undefined => {
+  /** Checks one row; one that passes waits in `checked` for its pseudonym. Returns a promise only when it must wait. */
+  const check = (row: TableRow, checked: CheckedRow[]): Promise<void> | undefined => {
     const bad = checkRow(rules, row.cells, values);
     if (bad) return reject(row.line, bad.code, bad.column, bad.reason, bad.cell === null ? null : cellPreview(bad.cell), bad.quoted);
-    const checked = values;
-    const hash = pseudonym(key, 'subject', input.programId, checked.subject);
+    let rest = '';
+    for (const v of values.outcomes) rest += Number.isNaN(v) ? `\t${NULL}` : `\t${v}`;
+    for (let i = 0; i < values.covariates.length; i++) {
+      if (rules.covariates[i]!.column === null) continue;
+      const v = values.covariates[i]!;
+      rest += Number.isNaN(v) ? `\t${NULL}` : `\t${v}`;
+    }
+    checked.push({ line: row.line, subject: values.subject, score: values.score, takeUp: values.takeUp, cluster: values.cluster, rest });
+    return undefined;
+  };
+
+  /** Accepts a checked row with its pseudonym, in line order; returns a promise only when it must wait (a batch to save, a new cluster, a full buffer). */
+  const accept = (row: CheckedRow, hash: Buffer): Promise<void> | undefined => {
     const firstLine = subjects.add(hash, row.line);
     if (firstLine !== 0) {
       if (!r.duplicates) r.duplicates = { count: 0, firstLine, repeatsLine: row.line };
@@ -134,32 +164,36 @@ export async function runValidationPass(input: PassInput): Promise<PassResult> {
       return reject(row.line, 'extract_duplicate_subject', rules.columns[rules.subjectId] ?? null, `The same subject already appears on line ${firstLine}.`, null);
     }
     r.rowsAccepted++;
-    if (isEligible(checked.score, input.cutoff, input.eligibleSide)) r.eligibleRows++;
+    if (isEligible(row.score, input.cutoff, input.eligibleSide)) r.eligibleRows++;
     else r.ineligibleRows++;
-    if (checked.takeUp !== null) {
+    if (row.takeUp !== null) {
       r.takeUpRows++;
-      r.takeUpOnes += checked.takeUp;
+      r.takeUpOnes += row.takeUp;
     }
-    if (checked.score < r.scoreMin) r.scoreMin = checked.score;
-    if (checked.score > r.scoreMax) r.scoreMax = checked.score;
-    let rest = '';
-    for (const v of checked.outcomes) rest += Number.isNaN(v) ? `\t${NULL}` : `\t${v}`;
-    for (let i = 0; i < checked.covariates.length; i++) {
-      if (rules.covariates[i]!.column === null) continue;
-      const v = checked.covariates[i]!;
-      rest += Number.isNaN(v) ? `\t${NULL}` : `\t${v}`;
-    }
-    const head = `${row.line}\t${hash.toString('hex')}\t${checked.score}\t${checked.takeUp ?? NULL}\t`;
-    if (checked.cluster === null) return writer.write(`${head}${NULL}${rest}\n`);
-    const clusterHash = pseudonym(key, 'cluster', input.programId, checked.cluster);
+    if (row.score < r.scoreMin) r.scoreMin = row.score;
+    if (row.score > r.scoreMax) r.scoreMax = row.score;
+    const head = `${row.line}\t${hash.toString('hex')}\t${row.score}\t${row.takeUp ?? NULL}\t`;
+    if (row.cluster === null) return writer.write(`${head}${NULL}${row.rest}\n`);
+    const clusterHash = pseudonym(key, 'cluster', input.programId, row.cluster);
     const known = clusterCodes.get(clusterHash.toString('hex'));
-    if (known !== undefined) return writer.write(`${head}${known}${rest}\n`);
+    if (known !== undefined) return writer.write(`${head}${known}${row.rest}\n`);
     return input.clusterCode(clusterHash).then((code) => {
       clusterCodes.set(clusterHash.toString('hex'), code);
-      return writer.write(`${head}${code}${rest}\n`);
+      return writer.write(`${head}${code}${row.rest}\n`);
     });
   };
 
+  /** Accepts a checked batch once its pseudonyms have arrived. */
+  const acceptBatch = async (batch: PendingBatch): Promise<void> => {
+    const hashes = await batch.hashes;
+    for (let i = 0; i < batch.rows.length; i++) {
+      const waiting = accept(batch.rows[i]!, hashes.subarray(32 * i, 32 * i + 32));
+      if (waiting) await waiting;
+    }
+  };
+
+  // A batch's pseudonyms are computed on the worker thread while this one checks the next batch.
+  let pending: PendingBatch | null = null;
   try {
     rows: for await (const batch of table.batches) {
       const now = Date.now();
@@ -167,16 +201,25 @@ export async function runValidationPass(input: PassInput): Promise<PassResult> {
         lastProgress = now;
         input.progress(table.bytesRead(), table.totalBytes);
       }
+      const checked: CheckedRow[] = [];
+      let full = false;
       for (const row of batch) {
         if (++r.rowsRead % ROWS_PER_COLLECTION === 0) collectGarbage();
         if (r.rowsRead > input.maxRows) {
-          r.tooManyRows = true;
-          break rows;
+          r.tooManyRows = full = true;
+          break;
         }
-        const waiting = handle(row);
+        const waiting = check(row, checked);
         if (waiting) await waiting;
       }
+      const hashes = pseudonymsOnThread(input.pseudonymKey, 'subject', input.programId, checked.map((c) => c.subject));
+      // Awaited in turn below; a pass cut short by an error must not leave it unhandled.
+      hashes.catch(() => undefined);
+      if (pending) await acceptBatch(pending);
+      pending = { rows: checked, hashes };
+      if (full) break rows;
     }
+    if (pending) await acceptBatch(pending);
     if (rejectedBatch.length > 0) await input.saveRejected(rejectedBatch);
     r.chunks = await writer.finish();
   } finally {
