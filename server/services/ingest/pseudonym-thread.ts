@@ -48,7 +48,7 @@ function start(): Worker {
     waiting.delete(message.id);
     if (waiting.size === 0) thread.unref();
     if (message.ok) task.resolve(Buffer.from(message.bytes!));
-    else task.reject(new Error(message.message));
+    else task.reject(workerError('pseudonym_batch_failed', message.message ?? 'A batch of pseudonyms failed.'));
   });
   const lost = (err: Error) => {
     if (worker !== thread) return;
@@ -56,7 +56,12 @@ function start(): Worker {
     for (const task of waiting.values()) task.reject(err);
     waiting.clear();
   };
-  thread.on('error', lost);
-  thread.on('exit', (code) => lost(new Error(`The pseudonym worker stopped (exit code ${code}).`)));
+  thread.on('error', (err) => lost(workerError('pseudonym_worker_failed', `The pseudonym worker failed: ${err.message}`)));
+  thread.on('exit', (code) => lost(workerError('pseudonym_worker_stopped', `The pseudonym worker stopped (exit code ${code}).`)));
   return thread;
+}
+
+/** An error with a code, since the ingest worker logs only names and codes of what failed (`safeError`). */
+function workerError(code: string, message: string): Error {
+  return Object.assign(new Error(message), { code });
 }
