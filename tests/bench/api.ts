@@ -4,7 +4,6 @@ import fs from 'node:fs';
 import path from 'node:path';
 import readline from 'node:readline';
 import zlib from 'node:zlib';
-import { Client } from 'undici';
 import { loadConfig, REPO_ROOT } from '@server/config/env';
 import { createDataSource } from '@server/db/data-source';
 import { PrivateMariaDb } from '@server/db/private-mariadb';
@@ -20,14 +19,15 @@ import { installDemoResults } from '../support/demo-results';
 import { startTestIdp } from '../support/local-idp';
 import { signIn } from '../support/sign-in';
 import { testEnvironment, TEST_VAR_DIR } from '../support/test-env';
+import { runHttpLoad, type LoadRequest } from './http-load';
 import { processTreeCpuSeconds } from './process-cpu';
 
 /**
  * `npm run bench:api`: the demo scenario with its 24 months of results on a private MariaDB
  * (port base+14, data under var/bench, deleted afterwards); the app in a child process; then
- * 1. 50 keep-alive connections (undici), one signed-in manager each, cycling the dashboard
- *    endpoints a manager's screens call (overview, trend of each outcome, the latest month): 3 s of
- *    warm-up, then 20 s measured (target p95 ≤ 50 ms);
+ * 1. 50 keep-alive connections (wrk, `http-load.ts`) sending the dashboard requests a manager's
+ *    screens make (overview, trend of each outcome, the latest month) as 50 signed-in managers,
+ *    cycled: 3 s of warm-up, then 20 s measured (target p95 ≤ 50 ms);
  * 2. in headless Chromium, the bytes of every script and stylesheet the first route (`/`, the
  *    programs overview) loads, gzipped here at level 9 (target ≤ 350 KB; the chart library must
  *    not be among them), and the seconds from opening the trend dashboard to its charts drawn.
@@ -42,8 +42,6 @@ const DURATION_S = Number(process.env.BENCH_API_SECONDS ?? 20);
  */
 const WARMUP_S = Number(process.env.BENCH_API_WARMUP_SECONDS ?? 3);
 const say = (line: string) => console.log(`[bench] ${line}`);
-/** What the dashboard's browser sends with each API request: JSON wanted, compressed answers welcome. */
-const BROWSER_HEADERS = { accept: 'application/json', 'accept-encoding': 'gzip, deflate, br, zstd' };
 
 async function main(): Promise<void> {
   const base = Number(process.env.CUTLINE_PORT_BASE ?? 4600);
@@ -103,25 +101,22 @@ async function main(): Promise<void> {
       sequential.push(`${p.replace(`/api/programs/${programId}`, '…')} ${times[5]!.toFixed(1)} ms ${(bytes / 1024).toFixed(0)} KB`);
     }
     say(`one at a time (median of 10): ${sequential.join('; ')}`);
-    // Every response's latency, for exact percentiles.
-    const latencies: number[] = [];
-    await loadFromConnections(url, cookies, paths, [], WARMUP_S);
+    // Each signed-in manager asks for each dashboard endpoint in turn.
+    const requests: LoadRequest[] = cookies.flatMap((c, i) => paths.map((_, j) => ({ path: paths[(i + j) % paths.length]!, cookie: c })));
+    await runHttpLoad(url, requests, { connections: CONNECTIONS, seconds: WARMUP_S });
     say(`warm-up: the same load for ${WARMUP_S} s, not counted`);
     const dbPid = Number(fs.readFileSync(db.pidFile, 'utf8'));
-    const cpuBefore = { app: processTreeCpuSeconds(child.pid!), db: processTreeCpuSeconds(dbPid), load: process.cpuUsage() };
-    const load = await loadFromConnections(url, cookies, paths, latencies, DURATION_S);
-    const non2xx = load.notOk;
-    say(`${load.total} requests in ${DURATION_S} s over ${paths.length} endpoints; ${non2xx} not 2xx, errors or timeouts`);
-    if (non2xx > 0) throw new Error('Some requests failed under load; the figures would not mean anything.');
+    const cpuBefore = { app: processTreeCpuSeconds(child.pid!), db: processTreeCpuSeconds(dbPid) };
+    const load = await runHttpLoad(url, requests, { connections: CONNECTIONS, seconds: DURATION_S });
+    say(`${load.total} requests in ${DURATION_S} s over ${paths.length} endpoints; ${load.notOk} not 2xx, errors or timeouts`);
+    if (load.notOk > 0) throw new Error('Some requests failed under load; the figures would not mean anything.');
     const perRequestMs = (seconds: number) => ((seconds * 1000) / load.total).toFixed(2);
-    const loadCpu = process.cpuUsage(cpuBefore.load);
     say(
       `CPU per request (ms; steadier than latency on a shared machine): app ${perRequestMs(processTreeCpuSeconds(child.pid!) - cpuBefore.app)}, ` +
-        `MariaDB ${perRequestMs(processTreeCpuSeconds(dbPid) - cpuBefore.db)}, load generator ${perRequestMs((loadCpu.user + loadCpu.system) / 1e6)}`,
+        `MariaDB ${perRequestMs(processTreeCpuSeconds(dbPid) - cpuBefore.db)}, load generator ${perRequestMs(load.generatorCpuS)}`,
     );
     const rps = load.total / DURATION_S;
-    latencies.sort((a, b) => a - b);
-    const [p50, p95, p99] = [50, 95, 99].map((p) => percentile(latencies, p)) as [number, number, number];
+    const [p50, p95, p99] = [load.p50Ms, load.p95Ms, load.p99Ms];
 
     const browserFigures = await measureBrowser(url, programId);
     say(`first route: ${browserFigures.files} files, ${browserFigures.rawKb.toFixed(0)} KB raw, ${browserFigures.gzipKb.toFixed(1)} KB gzip (target ≤ 350 KB); chart library on the first route: ${browserFigures.chartsOnFirstRoute ? 'YES' : 'no'}`);
@@ -135,48 +130,6 @@ async function main(): Promise<void> {
     await db.destroy();
     fs.rmSync(BENCH_DIR, { recursive: true, force: true });
   }
-}
-
-/**
- * Closed-loop load: one keep-alive connection per signed-in person, each asking for the next path
- * as soon as the previous answer has fully arrived, for `seconds`. undici's client rather than
- * autocannon: autocannon decodes every response body into a string, which for gzip bytes cost
- * about 0.4 ms of CPU per request on the same two cores as the app and so lengthened the very
- * latencies measured. Each answer's latency (ms, request sent to last byte read) goes to `latencies`.
- */
-async function loadFromConnections(url: string, cookies: readonly string[], paths: readonly string[], latencies: number[], seconds: number) {
-  const deadline = performance.now() + seconds * 1000;
-  let total = 0;
-  let notOk = 0;
-  await Promise.all(
-    cookies.map(async (cookie, connection) => {
-      const client = new Client(url, { pipelining: 1 });
-      const headers = { ...BROWSER_HEADERS, cookie };
-      try {
-        for (let i = connection; performance.now() < deadline; i++) {
-          const started = performance.now();
-          try {
-            const res = await client.request({ method: 'GET', path: paths[i % paths.length]!, headers });
-            for await (const _chunk of res.body) void _chunk;
-            if (res.statusCode < 200 || res.statusCode > 299) notOk++;
-          } catch {
-            notOk++;
-          }
-          latencies.push(performance.now() - started);
-          total++;
-        }
-      } finally {
-        await client.close();
-      }
-    }),
-  );
-  return { total, notOk };
-}
-
-/** Nearest-rank percentile of sorted values (ms). */
-function percentile(sorted: readonly number[], p: number): number {
-  if (sorted.length === 0) return Number.NaN;
-  return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1))]!;
 }
 
 function sessionCookie(agent: unknown): string {

@@ -30,3 +30,13 @@ export function processTreeCpuSeconds(rootPid: number): number {
   for (const [pid, { ticks: t }] of stats) if (inTree(pid)) ticks += t;
   return ticks / TICKS_PER_S;
 }
+
+/**
+ * CPU seconds (user + system) of this process's children that have ended and been waited for
+ * (`cutime` + `cstime` in /proc/self/stat): the difference around a child's run is its CPU.
+ */
+export function waitedChildrenCpuSeconds(): number {
+  const text = fs.readFileSync('/proc/self/stat', 'utf8');
+  const fields = text.slice(text.lastIndexOf(')') + 2).split(' ');
+  return (Number(fields[13]) + Number(fields[14])) / TICKS_PER_S;
+}
