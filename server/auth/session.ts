@@ -1,142 +1,150 @@
-import type { RequestHandler } from 'express';
-import session from 'express-session';
-import MySQLStoreFactory from 'express-mysql-session';
+import type { CookieOptions, Request, RequestHandler, Response } from 'express';
 import type { DataSource } from 'typeorm';
 import type { Config } from '../config/env';
-import { REUSE_READS_MS, REUSE_READS_SPREAD } from '../http/reused-reads';
-import { ExpiringMap } from '../lib/expiring-map';
+import { newSessionId, SESSION_COOKIE, sessionCookieValue, signedSessionCookie, verifiedSessionId } from './session-cookie';
+import { SessionStore } from './session-store';
 
-/** Name of the session cookie. */
-export const SESSION_COOKIE = 'cutline.sid';
+export { SESSION_COOKIE } from './session-cookie';
+export { TOUCH_INTERVAL_MS } from './session-store';
 
-declare module 'express-session' {
-  interface SessionData {
-    /** Synchronizer token for state-changing requests (`server/auth/csrf.ts`). */
-    csrfToken: string;
-    /** When the person signed in (ms since epoch), for the absolute timeout. */
-    signedInAt: number;
-  }
+/** What a session holds, all written at sign-in. */
+export interface SessionData {
+  /** passport's record of the signed-in person (`{ user: id }`, passport's layout). */
+  passport?: { user?: unknown };
+  /** Synchronizer token for state-changing requests (`server/auth/csrf.ts`). */
+  csrfToken?: string;
+  /** When the person signed in (ms since epoch), for the absolute timeout. */
+  signedInAt?: number;
 }
 
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
   namespace Express {
     interface Request {
+      /** The request's session (`sessionMiddleware`): the stored one its cookie names, or a new unsaved one. */
+      session: Session;
       /** Set when the request carried a session cookie whose session has ended (idle or absolute timeout, account switched off). */
       sessionEnded?: boolean;
     }
   }
 }
 
-const MySQLStore = MySQLStoreFactory(session);
+/** What a request's sessions share: where they are stored, how the cookie is made, which id the request's cookie names. */
+interface SessionContext {
+  req: Request;
+  res: Response;
+  store: SessionStore;
+  secret: string;
+  cookie: CookieOptions;
+  cookieId: string | undefined;
+}
 
 /**
- * express-session backed by the `http_session` table (created by a migration, so the store never
- * creates tables). The store's queries go through TypeORM's pool. The store ignores expired rows;
- * `purgeExpiredSessions` deletes them at each sign-in rather than on a timer in every instance.
+ * A request's session: its data as own properties (passport reads and writes `session.passport`),
+ * and the calls passport makes (`save`, `regenerate`). Nothing is stored unless `save` is called:
+ * every change to a session in Cutline is made at sign-in or sign-out, followed by a save.
+ */
+export class Session implements SessionData {
+  declare passport?: { user?: unknown };
+  declare csrfToken?: string;
+  declare signedInAt?: number;
+  declare readonly id: string;
+  declare private readonly context: SessionContext;
+
+  constructor(context: SessionContext, id: string, data: SessionData) {
+    // Not session data, so not enumerable: `JSON.stringify(session)` is exactly what is stored.
+    Object.defineProperties(this, { id: { value: id }, context: { value: context } });
+    Object.assign(this, data);
+  }
+
+  /** Stores the session; the first time under this id, also sets the cookie naming it. */
+  save(callback: (err?: unknown) => void = noop): void {
+    const context = this.context;
+    context.store.write(this.id, JSON.stringify(this)).then(() => {
+      if (context.cookieId === this.id) return callback();
+      if (context.res.headersSent) return callback(new Error('A new session was saved after the answer had begun, so its cookie could not be set.'));
+      context.res.cookie(SESSION_COOKIE, signedSessionCookie(this.id, context.secret), context.cookie);
+      context.cookieId = this.id;
+      callback();
+    }, callback);
+  }
+
+  /** Ends the session; the request goes on with a new, empty, unsaved one (`req.session`). */
+  destroy(callback: (err?: unknown) => void = noop): void {
+    const context = this.context;
+    const stored = context.cookieId === this.id;
+    (stored ? context.store.destroy(this.id) : Promise.resolve()).then(() => {
+      context.req.session = new Session(context, newSessionId(), {});
+      callback();
+    }, callback);
+  }
+
+  /**
+   * passport's call at sign-in and sign-out: a new id, so a session id planted before sign-in is
+   * never promoted (session fixation).
+   */
+  regenerate(callback: (err?: unknown) => void): void {
+    this.destroy(callback);
+  }
+}
+
+const noop = () => undefined;
+
+/**
+ * Sessions in the `http_session` table (`session-store.ts`) named by a signed cookie
+ * (`session-cookie.ts`). A browser-session cookie, set once when a session is first saved (at
+ * sign-in), so answers carry no Set-Cookie; the idle timeout is the stored expiry's, renewed on
+ * use; closing the browser drops the cookie. Written for Cutline rather than taken from
+ * express-session, which hashed each session three times and checked the cookie with four hash
+ * computations on every request: with its store, about a third of a cached dashboard answer's CPU.
  */
 export function sessionMiddleware(config: Config, dataSource: DataSource): RequestHandler {
-  const connection = {
-    // express-mysql-session accepts any object whose query() returns [rows, fields].
-    query: async (sql: string, params: unknown[]) => [await dataSource.query(sql, params), undefined],
-  };
-  const store = new MySQLStore(
-    {
-      createDatabaseTable: false,
-      clearExpired: false,
-      // The idle timeout lives here, in each stored session's expiry, renewed on use (`throttleTouches`).
-      expiration: config.auth.session.idleMinutes * 60_000,
-      endConnectionOnClose: false,
-      schema: { tableName: 'http_session', columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' } },
-    },
-    connection as never,
-  );
-  throttleTouches(store, TOUCH_INTERVAL_MS);
-  reuseSessionReads(store, new ExpiringMap<string, string>(REUSE_READS_MS, 10_000, REUSE_READS_SPREAD));
-  return session({
-    name: SESSION_COOKIE,
-    secret: config.secrets.sessionSecret,
-    store,
-    resave: false,
-    saveUninitialized: false,
-    // A browser-session cookie, set once at sign-in: the idle timeout is the stored expiry's, so
-    // answers carry no Set-Cookie (re-signing and re-sending the cookie on every answer cost about
-    // a seventh of a cached dashboard answer's CPU). Closing the browser drops the cookie.
-    rolling: false,
-    cookie: {
-      httpOnly: true,
-      sameSite: 'lax',
-      secure: config.auth.session.cookieSecure,
-      path: '/',
-    },
-  });
-}
-
-/**
- * How often one process writes a session's renewed idle expiry (ms). express-session touches the
- * store on every request; writing it at most once a minute per session moves the idle timeout by
- * at most a minute and spares the database an UPDATE per request.
- */
-export const TOUCH_INTERVAL_MS = 60_000;
-
-type TouchFn = (sid: string, data: unknown, callback?: (err?: unknown) => void) => void;
-
-function throttleTouches(store: session.Store, intervalMs: number): void {
-  const touch = (store as unknown as { touch?: TouchFn }).touch?.bind(store);
-  if (!touch) return;
-  const lastTouched = new Map<string, number>();
-  (store as unknown as { touch: TouchFn }).touch = (sid, data, callback) => {
-    const now = Date.now();
-    if (now - (lastTouched.get(sid) ?? 0) < intervalMs) return callback?.();
-    // Bounded: entries older than the interval are useless, so the map is emptied when it grows.
-    if (lastTouched.size > 10_000) lastTouched.clear();
-    lastTouched.set(sid, now);
-    touch(sid, data, callback);
-  };
-}
-
-type GetFn = (sid: string, callback: (err: unknown, session?: session.SessionData | null) => void) => void;
-type ChangeFn = (sid: string, ...rest: never[]) => void;
-
-/**
- * Reuses a session read for `REUSE_READS_MS` (`server/http/reused-reads.ts`). What a session holds
- * is written at sign-in and never changes afterwards (the person, the CSRF token, the sign-in
- * time), so only its end matters: saving or destroying it here forgets it at once; an end decided
- * by another process (sign-out there, an expired idle time) is seen within the window. Each request
- * gets its own copy, since express-session changes the object it is given.
- */
-function reuseSessionReads(store: session.Store, reads: ExpiringMap<string, string>): void {
-  const writable = store as unknown as { get: GetFn; set: ChangeFn; destroy: ChangeFn };
-  const get = writable.get.bind(store);
-  const read = (sid: string) =>
-    new Promise<string | undefined>((resolve, reject) => get(sid, (err, found) => (err ? reject(err as Error) : resolve(found ? JSON.stringify(found) : undefined))));
-  writable.get = (sid, callback) => {
-    const kept = reads.get(sid);
-    if (kept !== undefined) return callback(null, JSON.parse(kept) as session.SessionData);
-    // Concurrent requests of one session (a dashboard asks for several answers at once) share a read.
-    reads.load(sid, () => read(sid)).then(
-      (found) => callback(null, found === undefined ? null : (JSON.parse(found) as session.SessionData)),
-      (err: unknown) => callback(err),
-    );
-  };
-  for (const method of ['set', 'destroy'] as const) {
-    const change = writable[method].bind(store);
-    writable[method] = (sid, ...rest) => {
-      reads.delete(sid);
-      change(sid, ...rest);
+  const store = new SessionStore(dataSource, config.auth.session.idleMinutes * 60_000);
+  const secret = config.secrets.sessionSecret;
+  const cookie: CookieOptions = { httpOnly: true, sameSite: 'lax', secure: config.auth.session.cookieSecure, path: '/' };
+  return (req, res, next) => {
+    const value = sessionCookieValue(req.headers.cookie);
+    const id = value === undefined ? undefined : verifiedSessionId(value, secret);
+    const context: SessionContext = { req, res, store, secret, cookie, cookieId: undefined };
+    const fresh = () => new Session(context, newSessionId(), {});
+    if (id === undefined) {
+      req.session = fresh();
+      return next();
+    }
+    const resume = async () => {
+      const data = parseSession(await store.read(id));
+      if (!data) return fresh();
+      context.cookieId = id;
+      await store.touch(id);
+      return new Session(context, id, data);
     };
+    resume().then((session) => {
+      req.session = session;
+      next();
+    }, next);
+  };
+}
+
+/** A stored session's data; a row that is not a JSON object (damaged) counts as no session. */
+function parseSession(json: string | undefined): SessionData | undefined {
+  if (json === undefined) return undefined;
+  try {
+    const data = JSON.parse(json) as unknown;
+    return data && typeof data === 'object' && !Array.isArray(data) ? (data as SessionData) : undefined;
+  } catch {
+    return undefined;
   }
 }
 
 /** Whether the request carries Cutline's session cookie at all. */
 export function hasSessionCookie(cookieHeader: string | undefined): boolean {
-  return (cookieHeader ?? '').split(';').some((part) => part.trim().startsWith(`${SESSION_COOKIE}=`));
+  return sessionCookieValue(cookieHeader) !== undefined;
 }
 
 /**
  * Ends sessions older than the absolute timeout and marks requests whose session cookie no longer
  * names a live session, so the API can answer `session_expired` instead of a bare "please sign in".
- * Runs after passport has loaded `req.user`.
+ * Runs after `restoreSignedInPerson` (`sign-in.ts`) has set `req.user`.
  */
 export function sessionLifetime(config: Config): RequestHandler {
   const absoluteMs = config.auth.session.absoluteHours * 3_600_000;
@@ -144,7 +152,7 @@ export function sessionLifetime(config: Config): RequestHandler {
     if (req.user) {
       const signedInAt = req.session.signedInAt ?? 0;
       if (Date.now() - signedInAt < absoluteMs) return next();
-      // Destroyed rather than logged out: logging out would store a fresh empty session.
+      // Destroyed rather than logged out: passport's logout writes the session once more first.
       req.session.destroy((err) => {
         req.user = undefined;
         req.sessionEnded = true;

@@ -1,9 +1,8 @@
 import { Column, Entity, Index, PrimaryColumn } from 'typeorm';
 
 /**
- * Browser sessions, read and written by express-mysql-session (`server/auth/session.ts`) with
- * `createDatabaseTable: false`: this entity and its migration own the table. Session ids are
- * case-sensitive, hence the binary collation.
+ * Browser sessions, read and written by `server/auth/session-store.ts`: this entity and its
+ * migration own the table. Session ids are case-sensitive, hence the binary collation.
  */
 @Entity({ name: 'http_session' })
 export class HttpSession {

@@ -31,7 +31,7 @@ async function afterReuseWindow(check: () => Promise<void>): Promise<void> {
 
 const sessionIdOf = (setCookie: string[] | string | undefined): string | null => {
   const line = [setCookie ?? []].flat().find((c) => c.startsWith('cutline.sid='));
-  return line ? decodeURIComponent(line.split(';')[0]!.slice('cutline.sid='.length)).replace(/^s:/, '').split('.')[0]! : null;
+  return line ? line.split(';')[0]!.slice('cutline.sid='.length).split('.')[0]! : null;
 };
 
 describe('sessions, CSRF and cross-program access', () => {
@@ -68,7 +68,7 @@ describe('sessions, CSRF and cross-program access', () => {
       const res = await signInThroughIdp(victim, { email: 'victim@test.example', displayName: 'Victim', groups: [] });
       const fresh = sessionIdOf(res.headers['set-cookie']);
       expect(fresh).toBeTruthy();
-      expect(fresh).not.toBe(planted!.value.replace(/^s%3A/, '').split('.')[0]);
+      expect(fresh).not.toBe(planted!.value.split('.')[0]);
       expect((await victim.get('/api/me').expect(200)).body.user.email).toBe('victim@test.example');
       // The planted (attacker's) session was replaced, so it is signed in as nobody now.
       const after = await attacker.get('/api/me');
@@ -94,7 +94,7 @@ describe('sessions, CSRF and cross-program access', () => {
       expect(cookie).not.toMatch(/Secure/);
       // A browser-session cookie, set at sign-in only: the idle timeout is the stored expiry's.
       expect(cookie).not.toMatch(/Max-Age|Expires/i);
-      const sessionId = decodeURIComponent(cookie.split(';')[0]!.slice('cutline.sid='.length)).slice(2).split('.')[0]!;
+      const sessionId = sessionIdOf(cookie)!;
       const stored = await db.dataSource.getRepository(HttpSession).findOneByOrFail({ sessionId });
       expect(Math.abs(stored.expires - (Date.now() / 1000 + db.config.auth.session.idleMinutes * 60))).toBeLessThan(30);
       const again = await request(t.app).get('/api/me').set('Cookie', cookie.split(';')[0]!).expect(200);
@@ -172,6 +172,18 @@ describe('sessions, CSRF and cross-program access', () => {
       // Any state-changing request through this process forgets the reused reads.
       await other.post('/api/me/nothing-here').expect(404);
       await other.get(`/api/programs/${programA}`).expect(403);
+    });
+
+    it('turns away a real session id under a wrong signature, and counts a damaged stored session as ended', async () => {
+      const agent = await signIn(t, { role: 'manager', programId: programA });
+      const sessionId = await currentSessionId(agent);
+      const forged = await request(t.app).get('/api/me').set('Cookie', `cutline.sid=${sessionId}.${'A'.repeat(43)}`).expect(401);
+      expect(forged.body.error.code).toBe('session_expired');
+      await agent.get('/api/me').expect(200);
+      await db.dataSource.getRepository(HttpSession).update({ sessionId }, { data: '{not json' });
+      await afterReuseWindow(async () => {
+        expect((await agent.get('/api/me').expect(401)).body.error.code).toBe('session_expired');
+      });
     });
 
     it('tells a request without any session to sign in', async () => {
@@ -256,6 +268,6 @@ describe('sessions, CSRF and cross-program access', () => {
 
   async function currentSessionId(agent: TestAgent): Promise<string> {
     const cookie = agent.jar.getCookie('cutline.sid', { domain: '127.0.0.1', path: '/', secure: false, script: false });
-    return decodeURIComponent(cookie!.value).replace(/^s:/, '').split('.')[0]!;
+    return cookie!.value.split('.')[0]!;
   }
 });
