@@ -6,8 +6,7 @@ import { parse } from '../http/validate';
 import { listAuditEvents } from '../services/audit.service';
 
 /** The audit trail; agency-wide administrators only. */
-export function adminAuditRoutes(ctx: AppContext): Router {
-  const router = Router();
+export function adminAuditRoutes(ctx: AppContext, router: Router = Router()): Router {
   router.get('/admin/audit', allow({ kind: 'roles', roles: ['admin'], scope: 'agency' }), async (req, res) => {
     res.json(await listAuditEvents(ctx.dataSource, parse(AuditListQuerySchema, req.query)));
   });

@@ -9,8 +9,7 @@ import { listSchedules, setSummaryPaused } from '../services/schedules.service';
 const PausedSchema = z.object({ paused: z.boolean() });
 
 /** Administrators see every summary e-mail schedule and may pause or resume one. */
-export function adminScheduleRoutes(ctx: AppContext): Router {
-  const router = Router();
+export function adminScheduleRoutes(ctx: AppContext, router: Router = Router()): Router {
   router.get('/admin/schedules', allow({ kind: 'roles', roles: ['admin'], scope: 'agency' }), async (_req, res) => {
     res.json(await listSchedules(ctx.dataSource, new Date()));
   });

@@ -10,8 +10,7 @@ import { createUser, getUser, listUsers, updateUser } from '../services/users.se
 const AGENCY_ADMIN = { kind: 'roles', roles: ['admin'], scope: 'agency' } as const;
 
 /** People and their role grants; agency-wide administrators only. */
-export function adminUserRoutes(ctx: AppContext): Router {
-  const router = Router();
+export function adminUserRoutes(ctx: AppContext, router: Router = Router()): Router {
   router.get('/admin/users', allow(AGENCY_ADMIN), async (req, res) => {
     res.json(await listUsers(ctx.dataSource, parse(UserListQuerySchema, req.query)));
   });

@@ -11,8 +11,7 @@ import { recordAudit } from '../services/audit.service';
 import { attachmentHeaders, streamFailed } from './download-response';
 
 /** The technical annex (`server/services/annex/`): the workbook of a program, or of one cohort. */
-export function annexRoutes(ctx: AppContext): Router {
-  const router = Router();
+export function annexRoutes(ctx: AppContext, router: Router = Router()): Router {
   router.get('/programs/:programId/annex', allow({ kind: 'roles', roles: ANNEX_ROLES, scope: 'program' }), async (req, res) => {
     const programId = idParam(req.params.programId, 'Program id');
     const query = parse(AnnexQuerySchema, req.query);

@@ -8,8 +8,7 @@ import { getIngestSettings, updateIngestSettings } from '../services/ingest-sett
 import type { AppContext } from '../app-context';
 
 /** Data sources with their saved column mappings, and the program's ingest settings. */
-export function dataSourceRoutes(ctx: AppContext): Router {
-  const router = Router();
+export function dataSourceRoutes(ctx: AppContext, router: Router = Router()): Router {
   router.get('/programs/:programId/data-sources', allow({ kind: 'roles', roles: ['analyst', 'admin'], scope: 'program' }), async (req, res) => {
     res.json(await listDataSources(ctx.dataSource, idParam(req.params.programId, 'Program id')));
   });

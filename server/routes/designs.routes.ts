@@ -13,8 +13,7 @@ const WRITERS = ['analyst'] as const;
 const CompareQuerySchema = z.object({ from: z.coerce.number().int().min(1), to: z.coerce.number().int().min(1) });
 
 /** Evaluation designs: list, read, create, edit (a new version), lock, compare versions. */
-export function designRoutes(ctx: AppContext): Router {
-  const router = Router();
+export function designRoutes(ctx: AppContext, router: Router = Router()): Router {
   const ids = (params: Record<string, string | string[] | undefined>) => ({
     programId: idParam(params.programId, 'Program id'),
     designId: idParam(params.designId, 'Design id'),

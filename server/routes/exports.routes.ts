@@ -10,8 +10,7 @@ import { prepareDeidentifiedExport } from '../services/deidentified-export/deide
 import { attachmentHeaders, streamFailed, writeChunk } from './download-response';
 
 /** The row-level de-identified export (CSV), for evaluators only; every download is audited. */
-export function exportRoutes(ctx: AppContext): Router {
-  const router = Router();
+export function exportRoutes(ctx: AppContext, router: Router = Router()): Router {
   router.get('/programs/:programId/exports/deidentified', allow({ kind: 'roles', roles: DEIDENTIFIED_EXPORT_ROLES, scope: 'program' }), async (req, res) => {
     const programId = idParam(req.params.programId, 'Program id');
     const query = parse(DeidentifiedExportQuerySchema, req.query);

@@ -28,8 +28,7 @@ export const MAX_UPLOAD_BYTES = 512 * 1024 * 1024;
 const readers: AccessRule = { kind: 'roles', roles: ['analyst', 'admin', 'evaluator'], scope: 'program' };
 const analysts: AccessRule = { kind: 'roles', roles: ['analyst'], scope: 'program' };
 
-export function extractRoutes(ctx: AppContext): Router {
-  const router = Router();
+export function extractRoutes(ctx: AppContext, router: Router = Router()): Router {
   const base = '/programs/:programId/extracts';
   const ids = (params: Record<string, string | string[] | undefined>) => ({
     programId: idParam(params.programId, 'Program id'),

@@ -9,8 +9,7 @@ import { getSentMail, listSentMail } from '../services/mail-log.service';
 import { getSubscription, updateSubscription } from '../services/subscriptions.service';
 
 /** The director's own summary settings, and the administrators' *Sent mail* pages. */
-export function mailRoutes(ctx: AppContext): Router {
-  const router = Router();
+export function mailRoutes(ctx: AppContext, router: Router = Router()): Router {
   router.get('/me/subscription', allow({ kind: 'signed-in' }), async (req, res) => {
     res.json(await getSubscription(ctx.dataSource, requireUser(req).id, new Date()));
   });

@@ -6,8 +6,7 @@ import { allow } from '../http/access';
 import { requireUser } from '../http/current-user';
 import { grantsOfUsers } from '../services/grants.service';
 
-export function meRoutes(ctx: AppContext): Router {
-  const router = Router();
+export function meRoutes(ctx: AppContext, router: Router = Router()): Router {
   /** Who is signed in, their grants, the CSRF token of the session and when it ends. */
   router.get('/me', allow({ kind: 'signed-in' }), async (req, res) => {
     const user = requireUser(req);

@@ -8,8 +8,7 @@ import { idParam, parse } from '../http/validate';
 import { createProgram, replaceCovariates, replaceCutoffSchedule, replaceOutcomes, updateProgram } from '../services/program-admin.service';
 
 /** Administrators create programs (agency-wide) and change a program's details, cutoff schedule and definitions. */
-export function programAdminRoutes(ctx: AppContext): Router {
-  const router = Router();
+export function programAdminRoutes(ctx: AppContext, router: Router = Router()): Router {
   const id = (v: string | string[] | undefined) => idParam(v, 'Program id');
   router.post('/admin/programs', allow({ kind: 'roles', roles: ['admin'], scope: 'agency' }), async (req, res) => {
     res.status(201).json(await createProgram(ctx.dataSource, actorOf(req), parse(ProgramCreateInputSchema, req.body)));

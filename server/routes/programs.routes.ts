@@ -5,8 +5,7 @@ import { idParam, parse } from '../http/validate';
 import { getProgram, listPrograms } from '../services/programs.service';
 import type { AppContext } from '../app-context';
 
-export function programRoutes(ctx: AppContext): Router {
-  const router = Router();
+export function programRoutes(ctx: AppContext, router: Router = Router()): Router {
   router.get('/programs', allow({ kind: 'signed-in' }), async (req, res) => {
     const page = parse(PageQuerySchema, req.query);
     res.json(await listPrograms(ctx.dataSource, ctx.visiblePrograms(req), page));

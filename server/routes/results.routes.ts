@@ -13,8 +13,7 @@ import { getCohortDetail, getCohortTrend, getResultsOverview } from '../services
 const TrendQuerySchema = z.object({ outcome: VariableKeySchema });
 
 /** The results read API (DTOs in `shared/api/results.ts`): overview, trend, one cohort. */
-export function resultRoutes(ctx: AppContext): Router {
-  const router = Router();
+export function resultRoutes(ctx: AppContext, router: Router = Router()): Router {
   router.get(
     '/programs/:programId/results',
     allow({ kind: 'roles', roles: ['admin', 'analyst', 'manager', 'evaluator', 'director'], scope: 'program' }),

@@ -9,8 +9,7 @@ import { wakeRecompute } from '../services/recompute/wake';
 import { getRun, listRuns, toRunDto } from '../services/results.service';
 
 /** The job-run log and the on-demand recompute (analysts and admins). */
-export function runRoutes(ctx: AppContext): Router {
-  const router = Router();
+export function runRoutes(ctx: AppContext, router: Router = Router()): Router {
   const who = { kind: 'roles', roles: ['admin', 'analyst'], scope: 'program' } as const;
   router.get('/programs/:programId/runs', allow(who), async (req, res) => {
     res.json(await listRuns(ctx.dataSource, idParam(req.params.programId, 'Program id'), parse(PageQuerySchema, req.query)));

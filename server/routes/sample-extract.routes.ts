@@ -8,8 +8,7 @@ import { notFound } from '../lib/errors';
 import type { AppContext } from '../app-context';
 
 /** The demo program's sample workbook (a regional office's month, invented), for trying an upload by hand. */
-export function sampleExtractRoutes(ctx: AppContext): Router {
-  const router = Router();
+export function sampleExtractRoutes(ctx: AppContext, router: Router = Router()): Router {
   router.get('/programs/:programId/sample-extract.xlsx', allow({ kind: 'roles', roles: ['analyst'], scope: 'program' }), async (req, res) => {
     const programId = idParam(req.params.programId, 'Program id');
     const program = await ctx.dataSource.getRepository(Program).findOneBy({ id: programId });
