@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { newSessionId, sessionCookieValue, signedSessionCookie, verifiedSessionId } from './session-cookie';
+import { newSessionId, sessionCookieValue, sessionIdVerifier, signedSessionCookie, verifiedSessionId } from './session-cookie';
 
 describe('session cookie', () => {
   it('signs with HMAC-SHA256 (RFC 4231, test case 2), written base64url', () => {
@@ -20,6 +20,17 @@ describe('session cookie', () => {
     expect(verifiedSessionId(`${value}x`, 'secret-one')).toBeUndefined();
     expect(verifiedSessionId(id, 'secret-one')).toBeUndefined();
     expect(verifiedSessionId('', 'secret-one')).toBeUndefined();
+  });
+
+  it('answers as verifiedSessionId does when it remembers values, and never remembers a wrong one', () => {
+    const verify = sessionIdVerifier('secret-one');
+    const id = newSessionId();
+    const good = signedSessionCookie(id, 'secret-one');
+    const bad = signedSessionCookie(id, 'secret-two');
+    for (let i = 0; i < 3; i++) {
+      expect(verify(good)).toBe(id);
+      expect(verify(bad)).toBeUndefined();
+    }
   });
 
   it('makes ids of 24 random bytes that need no escaping in a cookie', () => {

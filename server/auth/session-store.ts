@@ -34,8 +34,8 @@ export class SessionStore {
 
   /**
    * The stored JSON of a live session, or `undefined` when there is none (never stored, ended, or
-   * idle too long). Requests of one session arriving together (a dashboard asks for several
-   * answers at once) share one read.
+   * idle too long): at once when a reused read holds it, else a read under way. Requests of one
+   * session arriving together (a dashboard asks for several answers at once) share one read.
    */
   read(id: string): string | undefined | Promise<string | undefined> {
     return (
@@ -57,11 +57,14 @@ export class SessionStore {
     this.noteWritten(id);
   }
 
-  /** Renews a session's idle expiry, writing it at most once per `TOUCH_INTERVAL_MS` per session. */
-  async touch(id: string): Promise<void> {
-    if (Date.now() - (this.lastWritten.get(id) ?? 0) < TOUCH_INTERVAL_MS) return;
+  /**
+   * Renews a session's idle expiry, writing it at most once per `TOUCH_INTERVAL_MS` per session:
+   * `undefined` when nothing was due, else the write under way.
+   */
+  touch(id: string): Promise<void> | undefined {
+    if (Date.now() - (this.lastWritten.get(id) ?? 0) < TOUCH_INTERVAL_MS) return undefined;
     this.noteWritten(id);
-    await this.dataSource.query('UPDATE http_session SET expires = ? WHERE session_id = ?', [this.expiry(), id]);
+    return this.dataSource.query('UPDATE http_session SET expires = ? WHERE session_id = ?', [this.expiry(), id]).then(() => undefined);
   }
 
   /** Ends a session. */

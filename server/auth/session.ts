@@ -1,7 +1,7 @@
 import type { CookieOptions, Request, RequestHandler, Response } from 'express';
 import type { DataSource } from 'typeorm';
 import type { Config } from '../config/env';
-import { newSessionId, SESSION_COOKIE, sessionCookieValue, signedSessionCookie, verifiedSessionId } from './session-cookie';
+import { newSessionId, SESSION_COOKIE, sessionCookieValue, sessionIdVerifier, signedSessionCookie } from './session-cookie';
 import { SessionStore } from './session-store';
 
 export { SESSION_COOKIE } from './session-cookie';
@@ -101,27 +101,30 @@ const noop = () => undefined;
 export function sessionMiddleware(config: Config, dataSource: DataSource): RequestHandler {
   const store = new SessionStore(dataSource, config.auth.session.idleMinutes * 60_000);
   const secret = config.secrets.sessionSecret;
+  const verifiedId = sessionIdVerifier(secret);
   const cookie: CookieOptions = { httpOnly: true, sameSite: 'lax', secure: config.auth.session.cookieSecure, path: '/' };
   return (req, res, next) => {
     const value = sessionCookieValue(req.headers.cookie);
-    const id = value === undefined ? undefined : verifiedSessionId(value, secret);
+    const id = value === undefined ? undefined : verifiedId(value);
     const context: SessionContext = { req, res, store, secret, cookie, cookieId: undefined };
-    const fresh = () => new Session(context, newSessionId(), {});
-    if (id === undefined) {
-      req.session = fresh();
-      return next();
-    }
-    const resume = async () => {
-      const data = parseSession(await store.read(id));
-      if (!data) return fresh();
-      context.cookieId = id;
-      await store.touch(id);
-      return new Session(context, id, data);
-    };
-    resume().then((session) => {
-      req.session = session;
+    const startFresh = () => {
+      req.session = new Session(context, newSessionId(), {});
       next();
-    }, next);
+    };
+    if (id === undefined) return startFresh();
+    const resume = (json: string | undefined) => {
+      const data = parseSession(json);
+      if (!data) return startFresh();
+      context.cookieId = id;
+      req.session = new Session(context, id, data);
+      const touching = store.touch(id);
+      if (touching) touching.then(() => next(), next);
+      else next();
+    };
+    // Most requests find their session in a reused read and go on without waiting for anything.
+    const stored = store.read(id);
+    if (stored instanceof Promise) stored.then(resume, next);
+    else resume(stored);
   };
 }
 
