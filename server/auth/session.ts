@@ -54,7 +54,10 @@ export class Session implements SessionData {
   constructor(context: SessionContext, id: string, data: SessionData) {
     // Not session data, so not enumerable: `JSON.stringify(session)` is exactly what is stored.
     Object.defineProperties(this, { id: { value: id }, context: { value: context } });
-    Object.assign(this, data);
+    // The known fields only: a stored key can never shadow a method.
+    if (data.passport !== undefined) this.passport = data.passport;
+    if (data.csrfToken !== undefined) this.csrfToken = data.csrfToken;
+    if (data.signedInAt !== undefined) this.signedInAt = data.signedInAt;
   }
 
   /** Stores the session; the first time under this id, also sets the cookie naming it. */
@@ -95,8 +98,9 @@ const noop = () => undefined;
  * (`session-cookie.ts`). A browser-session cookie, set once when a session is first saved (at
  * sign-in), so answers carry no Set-Cookie; the idle timeout is the stored expiry's, renewed on
  * use; closing the browser drops the cookie. Written for Cutline rather than taken from
- * express-session, which hashed each session three times and checked the cookie with four hash
- * computations on every request: with its store, about a third of a cached dashboard answer's CPU.
+ * express-session, which on every request hashed the session three times and computed three more
+ * hashes to check the cookie: with its store, about a third of a cached dashboard answer's CPU in
+ * an in-process comparison.
  */
 export function sessionMiddleware(config: Config, dataSource: DataSource): RequestHandler {
   const store = new SessionStore(dataSource, config.auth.session.idleMinutes * 60_000);
