@@ -108,7 +108,7 @@ async function main(): Promise<void> {
     const dbPid = Number(fs.readFileSync(db.pidFile, 'utf8'));
     const cpuBefore = { app: processTreeCpuSeconds(child.pid!), db: processTreeCpuSeconds(dbPid) };
     const load = await runHttpLoad(url, requests, { connections: CONNECTIONS, seconds: DURATION_S });
-    say(`${load.total} requests in ${DURATION_S} s over ${paths.length} endpoints; ${load.notOk} not 2xx, errors or timeouts`);
+    say(`${load.total} requests in ${DURATION_S} s over ${paths.length} endpoints; ${load.notOk} error answers, failed connections or timeouts`);
     if (load.notOk > 0) throw new Error('Some requests failed under load; the figures would not mean anything.');
     const perRequestMs = (seconds: number) => ((seconds * 1000) / load.total).toFixed(2);
     say(

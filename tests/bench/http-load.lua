@@ -5,7 +5,7 @@
 local prepared = {}
 local next_index = 0
 
--- args[1]: a file with one request a line, "path<TAB>cookie"; each thread starts at its own place.
+-- args[1]: a file with one request a line, "path<TAB>cookie".
 function init(args)
   for line in io.lines(args[1]) do
     local path, cookie = line:match('^([^\t]+)\t(.+)$')
@@ -16,7 +16,6 @@ function init(args)
       ['Accept-Encoding'] = 'gzip, deflate, br, zstd',
     })
   end
-  next_index = math.random(#prepared)
 end
 
 function request()

@@ -15,7 +15,7 @@ export interface LoadRequest {
 export interface LoadResult {
   /** Answers received in the measured seconds. */
   total: number;
-  /** Answers outside 2xx, plus connection errors and timeouts. */
+  /** Answers with an error status (4xx, 5xx: wrk counts those), plus connection errors and timeouts. */
   notOk: number;
   /** Latency percentiles (ms, request written to answer read), over every answer. */
   p50Ms: number;
