@@ -38,13 +38,10 @@ export class SessionStore {
    * session arriving together (a dashboard asks for several answers at once) share one read.
    */
   read(id: string): string | undefined | Promise<string | undefined> {
-    return (
-      this.reads.get(id) ??
-      this.reads.load(id, async () => {
-        const rows = (await this.dataSource.query('SELECT data FROM http_session WHERE session_id = ? AND expires >= ?', [id, nowSeconds()])) as Array<{ data: string | null }>;
-        return rows[0]?.data ?? undefined;
-      })
-    );
+    return this.reads.load(id, async () => {
+      const rows = (await this.dataSource.query('SELECT data FROM http_session WHERE session_id = ? AND expires >= ?', [id, nowSeconds()])) as Array<{ data: string | null }>;
+      return rows[0]?.data ?? undefined;
+    });
   }
 
   /** Stores a session's JSON with a fresh idle expiry. */

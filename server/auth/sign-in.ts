@@ -83,7 +83,7 @@ export function createSignIn(ctx: AppContext): SignIn {
 function restoreSignedInPerson(dataSource: AppContext['dataSource']): RequestHandler {
   const database = String(dataSource.options.database ?? '');
   return (req, _res, next) => {
-    const stored = (req.session as { passport?: { user?: unknown } } | undefined)?.passport;
+    const stored = req.session.passport;
     const id = stored?.user;
     if (typeof id !== 'number') return next();
     const found = (user: CurrentUser | undefined) => {
@@ -91,14 +91,11 @@ function restoreSignedInPerson(dataSource: AppContext['dataSource']): RequestHan
       else delete stored!.user;
       next();
     };
-    const key = `${database}:${id}`;
-    const kept = people.get(key);
-    if (kept) return found(kept);
-    people
-      .load(key, async () => {
-        const user = await loadCurrentUser(dataSource, id);
-        return user ? (Object.freeze({ ...user, grants: Object.freeze(user.grants.map((g) => Object.freeze(g))) }) as CurrentUser) : undefined;
-      })
-      .then(found, next);
+    const person = people.load(`${database}:${id}`, async () => {
+      const user = await loadCurrentUser(dataSource, id);
+      return user ? (Object.freeze({ ...user, grants: Object.freeze(user.grants.map((g) => Object.freeze(g))) }) as CurrentUser) : undefined;
+    });
+    if (person instanceof Promise) person.then(found, next);
+    else found(person);
   };
 }

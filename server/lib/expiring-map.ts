@@ -34,12 +34,13 @@ export class ExpiringMap<K, V> {
   }
 
   /**
-   * The kept value, or else the value of `read()`, kept unless it is `undefined`. Requests that
-   * miss together share one read: when an entry runs out under load, dozens of requests would
-   * otherwise each run the same query at once. A read that a `delete` or `clear` overtook is
-   * returned to its callers but not kept, since what it read may predate the change.
+   * The kept value, at once (not a promise, so a hit costs its caller no wait), or else the value of
+   * `read()`, kept unless it is `undefined`. Requests that miss together share one read: when an
+   * entry runs out under load, dozens of requests would otherwise each run the same query at once.
+   * A read that a `delete` or `clear` overtook is returned to its callers but not kept, since what
+   * it read may predate the change.
    */
-  async load(key: K, read: () => Promise<V | undefined>): Promise<V | undefined> {
+  load(key: K, read: () => Promise<V | undefined>): V | Promise<V | undefined> {
     const kept = this.get(key);
     if (kept !== undefined) return kept;
     const underWay = this.reading.get(key);

@@ -53,7 +53,8 @@ export interface CachedJson {
  */
 export async function cachedResultsJson(ds: DataSource, programId: number, key: string, compute: () => Promise<unknown>): Promise<CachedJson> {
   const programKey = `${ds.options.database ?? ''}:${programId}`;
-  const stamp = stamps.get(programKey) ?? (await stamps.load(programKey, () => resultsStamp(ds, programId)))!;
+  const kept = stamps.load(programKey, () => resultsStamp(ds, programId));
+  const stamp = kept instanceof Promise ? (await kept)! : kept;
   const cacheKey = `${programKey}:${key}`;
   const hit = entries.get(cacheKey);
   if (hit && hit.stamp === stamp) return hit.answer;

@@ -18,8 +18,7 @@ export function processTreeCpuSeconds(rootPid: number): number {
     } catch {
       continue; // ended meanwhile
     }
-    // Fields after the command name, which is in parentheses and may hold spaces: state ppid … utime(14) stime(15).
-    const fields = text.slice(text.lastIndexOf(')') + 2).split(' ');
+    const fields = statFields(text);
     stats.set(Number(entry), { parent: Number(fields[1]), ticks: Number(fields[11]) + Number(fields[12]) });
   }
   let ticks = 0;
@@ -36,7 +35,14 @@ export function processTreeCpuSeconds(rootPid: number): number {
  * (`cutime` + `cstime` in /proc/self/stat): the difference around a child's run is its CPU.
  */
 export function waitedChildrenCpuSeconds(): number {
-  const text = fs.readFileSync('/proc/self/stat', 'utf8');
-  const fields = text.slice(text.lastIndexOf(')') + 2).split(' ');
+  const fields = statFields(fs.readFileSync('/proc/self/stat', 'utf8'));
   return (Number(fields[13]) + Number(fields[14])) / TICKS_PER_S;
+}
+
+/**
+ * The fields of a /proc/PID/stat line after the command name, which is in parentheses and may hold
+ * spaces: [0] state, [1] ppid, … [11] utime, [12] stime, [13] cutime, [14] cstime (proc(5), less 3).
+ */
+function statFields(text: string): string[] {
+  return text.slice(text.lastIndexOf(')') + 2).split(' ');
 }
